@@ -1,0 +1,171 @@
+import { type ComplexColumns, complexColumns } from '../complex-columns.ts';
+import type { Network, NetworkElement } from '../network.ts';
+import { ADMITTANCE_LIMIT_S, PointFlag } from '../point-flags.ts';
+import {
+  allocateChain,
+  appendCoupledSeries,
+  appendSeries,
+  appendShuntLineToLine,
+  appendShuntToGround,
+  type ChainBuffer,
+  resetToIdentity,
+} from './chain-ops.ts';
+import { allocateResponse, type NetworkResponse, responseHead } from './network-response.ts';
+import { terminate, type TerminationImpedances } from './terminate.ts';
+
+/**
+ * Scratch storage for sweeping one network on grids of up to `capacity` points. Reusing a
+ * workspace keeps repeated sweeps (refinement passes, Monte Carlo, parameter maps) free of
+ * allocation; nothing in it outlives the call that filled it except what the caller copies.
+ */
+export interface Workspace {
+  readonly capacity: number;
+  readonly chain: ChainBuffer;
+  /** Per element: its impedance as evaluated (two-terminal: Z; coupled pair: even and odd). */
+  readonly impedance: readonly ElementScratch[];
+  readonly terminations: TerminationImpedances;
+}
+
+interface ElementScratch {
+  /** Two-terminal: Z. Coupled pair: even (common-mode path) impedance per winding. */
+  readonly primary: ComplexColumns;
+  /** Two-terminal shunt: Y = 1/Z. Coupled pair: odd (leakage path) impedance per winding. */
+  readonly secondary: ComplexColumns;
+  /** Coupled pair only: self and mutual entries of the 2×2 impedance matrix. */
+  readonly self: ComplexColumns;
+  readonly mutual: ComplexColumns;
+}
+
+const EMPTY = complexColumns(0);
+
+export function createWorkspace(network: Network, capacity: number): Workspace {
+  return {
+    capacity,
+    chain: allocateChain(CHAIN_BLOCK),
+    impedance: network.elements.map((element) => {
+      const coupled = element.kind === 'coupled-pair';
+      const shunt = element.kind === 'two-terminal' && element.placement !== 'series-line1' && element.placement !== 'series-line2';
+      return {
+        primary: complexColumns(capacity),
+        secondary: coupled || shunt ? complexColumns(capacity) : EMPTY,
+        self: coupled ? complexColumns(capacity) : EMPTY,
+        mutual: coupled ? complexColumns(capacity) : EMPTY,
+      };
+    }),
+    terminations: {
+      commonModeSource: complexColumns(capacity),
+      differentialModeSource: complexColumns(capacity),
+      receiverLine1: complexColumns(capacity),
+      receiverLine2: complexColumns(capacity),
+    },
+  };
+}
+
+/** Points per cache block: a 4×4 complex chain of 64 points is 16 KiB and stays in L1. */
+export const CHAIN_BLOCK = 64;
+
+/**
+ * Sweep the network over `frequencyHz` (any order, all > 0) and write every output into `out`
+ * (from index 0). Element impedances are evaluated once over the whole grid; then, block by block,
+ * the cascade is built element by element with frequency innermost, and terminated.
+ * `out.flags` must start zeroed.
+ */
+export function evaluateNetwork(
+  network: Network,
+  frequencyHz: Float64Array,
+  workspace: Workspace,
+  out: NetworkResponse,
+): void {
+  const count = frequencyHz.length;
+  if (count > workspace.capacity) throw new Error(`grid of ${count} points exceeds workspace capacity ${workspace.capacity}`);
+  const flags = out.flags;
+  const { terminations, chain } = workspace;
+  network.commonModeSource.evaluate(frequencyHz, terminations.commonModeSource, flags);
+  network.differentialModeSource.evaluate(frequencyHz, terminations.differentialModeSource, flags);
+  network.receiverLine1.evaluate(frequencyHz, terminations.receiverLine1, flags);
+  network.receiverLine2.evaluate(frequencyHz, terminations.receiverLine2, flags);
+  const elements = network.elements;
+  for (let e = 0; e < elements.length; e += 1) prepareOperand(elements[e]!, frequencyHz, workspace.impedance[e]!, flags);
+
+  for (let start = 0; start < count; start += CHAIN_BLOCK) {
+    const length = Math.min(CHAIN_BLOCK, count - start);
+    resetToIdentity(chain, length);
+    for (let e = 0; e < elements.length; e += 1) appendElement(elements[e]!, workspace.impedance[e]!, chain, length, start);
+    terminate(chain, length, terminations, network.resistiveSystems, out, start);
+  }
+}
+
+/** Evaluate an element's impedance over the grid and the operand its chain update needs. */
+function prepareOperand(element: NetworkElement, f: Float64Array, scratch: ElementScratch, flags: Uint8Array): void {
+  const count = f.length;
+  if (element.kind === 'coupled-pair') {
+    const { primary: even, secondary: odd, self, mutual } = scratch;
+    element.eigenImpedances(f, even, odd, flags);
+    for (let i = 0; i < count; i += 1) {
+      self.re[i] = 0.5 * (even.re[i]! + odd.re[i]!);
+      self.im[i] = 0.5 * (even.im[i]! + odd.im[i]!);
+      mutual.re[i] = 0.5 * (even.re[i]! - odd.re[i]!);
+      mutual.im[i] = 0.5 * (even.im[i]! - odd.im[i]!);
+    }
+    return;
+  }
+  element.impedance.evaluate(f, scratch.primary, flags);
+  if (element.placement !== 'series-line1' && element.placement !== 'series-line2') {
+    invertInto(scratch.primary, scratch.secondary, count, flags);
+  }
+}
+
+function appendElement(element: NetworkElement, scratch: ElementScratch, chain: ChainBuffer, count: number, offset: number): void {
+  if (element.kind === 'coupled-pair') {
+    appendCoupledSeries(chain, count, scratch.self.re, scratch.self.im, scratch.mutual.re, scratch.mutual.im, offset);
+    return;
+  }
+  const z = scratch.primary;
+  const y = scratch.secondary;
+  switch (element.placement) {
+    case 'series-line1':
+      appendSeries(chain, count, 0, z.re, z.im, offset);
+      return;
+    case 'series-line2':
+      appendSeries(chain, count, 1, z.re, z.im, offset);
+      return;
+    case 'line1-to-ground':
+      appendShuntToGround(chain, count, 0, y.re, y.im, offset);
+      return;
+    case 'line2-to-ground':
+      appendShuntToGround(chain, count, 1, y.re, y.im, offset);
+      return;
+    case 'line-to-line':
+      appendShuntLineToLine(chain, count, y.re, y.im, offset);
+      return;
+  }
+}
+
+const ADMITTANCE_LIMIT_SQUARED = ADMITTANCE_LIMIT_S * ADMITTANCE_LIMIT_S;
+
+/** y = 1/z, limited to ADMITTANCE_LIMIT_S where z is (or is nearly) a short. */
+function invertInto(z: ComplexColumns, y: ComplexColumns, count: number, flags: Uint8Array): void {
+  for (let i = 0; i < count; i += 1) {
+    const zr = z.re[i]!;
+    const zi = z.im[i]!;
+    const z2 = zr * zr + zi * zi;
+    if (z2 * ADMITTANCE_LIMIT_SQUARED >= 1) {
+      y.re[i] = zr / z2;
+      y.im[i] = -zi / z2;
+    } else {
+      flags[i]! |= PointFlag.IdealResonanceLimited;
+      const magnitude = Math.sqrt(z2);
+      // A perfect short keeps no direction; a real one would be resistive.
+      y.re[i] = magnitude > 0 ? (zr / magnitude) * ADMITTANCE_LIMIT_S : ADMITTANCE_LIMIT_S;
+      y.im[i] = magnitude > 0 ? (-zi / magnitude) * ADMITTANCE_LIMIT_S : 0;
+    }
+  }
+}
+
+/** Convenience for one-off sweeps: allocate, evaluate, return a response sized to the grid. */
+export function evaluateNetworkOnce(network: Network, frequencyHz: Float64Array): NetworkResponse {
+  const workspace = createWorkspace(network, frequencyHz.length);
+  const response = allocateResponse(frequencyHz.length, network.resistiveSystems.length);
+  evaluateNetwork(network, frequencyHz, workspace, response);
+  return responseHead(response, frequencyHz.length);
+}

@@ -1,0 +1,45 @@
+import type { z } from 'zod';
+import type {
+  capacitorSchema,
+  commonModeChokeSchema,
+  dampingRcSchema,
+  dampingRlSchema,
+  designSchema,
+  elementSchema,
+  ferriteBeadSchema,
+  frequencyPlanSchema,
+  impedanceTableSchema,
+  inductorSchema,
+  measuredSchema,
+  noiseSourceSchema,
+  partSchema,
+  PLACEMENTS,
+  receiverSchema,
+  resistorSchema,
+  stageSchema,
+  twoTerminalSchema,
+} from './design-schema.ts';
+
+/** A design after validation: every physical value is an SI number, defaults filled in. */
+export type Design = z.output<typeof designSchema>;
+/** What a design file may hold before validation (numbers or engineering text, defaults absent). */
+export type DesignInput = z.input<typeof designSchema>;
+
+export type Stage = z.output<typeof stageSchema>;
+export type FilterElement = z.output<typeof elementSchema>;
+export type Placement = (typeof PLACEMENTS)[number];
+export type Part = z.output<typeof partSchema>;
+export type TwoTerminalPart = z.output<typeof twoTerminalSchema>;
+export type Capacitor = z.output<typeof capacitorSchema>;
+export type Inductor = z.output<typeof inductorSchema>;
+export type Resistor = z.output<typeof resistorSchema>;
+export type FerriteBead = z.output<typeof ferriteBeadSchema>;
+export type DampingRc = z.output<typeof dampingRcSchema>;
+export type DampingRl = z.output<typeof dampingRlSchema>;
+export type MeasuredImpedance = z.output<typeof measuredSchema>;
+export type ImpedanceTable = z.output<typeof impedanceTableSchema>;
+export type CommonModeChoke = z.output<typeof commonModeChokeSchema>;
+export type Receiver = z.output<typeof receiverSchema>;
+export type NoiseSource = z.output<typeof noiseSourceSchema>;
+export type FrequencyPlan = z.output<typeof frequencyPlanSchema>;
+export type PartKind = Part['kind'];

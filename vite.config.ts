@@ -1,0 +1,52 @@
+import { defineConfig } from 'vitest/config';
+
+// One config for the app build, the dev server and the tests.
+// The worker is bundled as an ES module so that comlink and the engine load with it.
+export default defineConfig({
+  base: './',
+  build: {
+    outDir: 'dist',
+    target: 'es2022',
+    sourcemap: true,
+  },
+  worker: {
+    format: 'es',
+  },
+  server: { host: '127.0.0.1' },
+  preview: { host: '127.0.0.1' },
+  test: {
+    // Warnings in tests are failures: see test/support/fail-on-console.ts.
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['test/**/*.test.ts'],
+          exclude: ['test/ui/**', 'test/e2e/**'],
+          setupFiles: ['test/support/fail-on-console.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'ui',
+          environment: 'happy-dom',
+          include: ['test/ui/**/*.test.ts'],
+          setupFiles: ['test/support/fail-on-console.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['test/e2e/**/*.test.ts'],
+          testTimeout: 60_000,
+          hookTimeout: 60_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
