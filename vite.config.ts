@@ -1,11 +1,17 @@
+import { fileURLToPath } from 'node:url';
 import { defineConfig } from 'vitest/config';
+
+const repoRoot = fileURLToPath(new URL('.', import.meta.url));
 
 // One config for the app build, the dev server and the tests.
 // The worker is bundled as an ES module so that comlink and the engine load with it.
+// The page's index.html lives in src/ui (the app root); the build still lands in the repo's dist/.
 export default defineConfig({
+  root: fileURLToPath(new URL('./src/ui', import.meta.url)),
   base: './',
   build: {
-    outDir: 'dist',
+    outDir: fileURLToPath(new URL('./dist', import.meta.url)),
+    emptyOutDir: true,
     target: 'es2022',
     sourcemap: true,
   },
@@ -15,6 +21,8 @@ export default defineConfig({
   server: { host: '127.0.0.1' },
   preview: { host: '127.0.0.1' },
   test: {
+    // Tests and their globs are relative to the repository, not to the app root.
+    root: repoRoot,
     // Warnings in tests are failures: see test/support/fail-on-console.ts.
     projects: [
       {

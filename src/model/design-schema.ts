@@ -142,6 +142,8 @@ export const commonModeChokeSchema = z.strictObject({
   dcr: quantityOr(0, 'Ω'),
   /** Across each winding, terminal to terminal. */
   windingCapacitance: quantityOr(0, 'F'),
+  /** Core and winding loss as a resistance across each winding; absent means none. */
+  parallelResistance: optionalQuantity('Ω'),
   permeability: permeabilitySchema.default({ kind: 'constant' }),
   ratedCurrent: optionalQuantity('A'),
   ratedVoltage: optionalQuantity('V'),

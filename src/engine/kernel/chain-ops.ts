@@ -4,17 +4,22 @@
  *
  *   [V_in; I_in] = T · [V_out; I_out],   T = [[A, B], [C, D]] with 2×2 blocks, lines 1 and 2.
  *
+ * Line coordinates, not mode coordinates: a part in one line then touches only that line's
+ * columns, so a large impedance in one line (a series capacitor, say) never has to cancel
+ * against the other line. (Mode coordinates favour chokes instead; tried and measured, they lose
+ * six digits on strongly unbalanced filters where line coordinates lose none. docs/engine-math.md §6.)
+ *
  * Storage is frequency-inner: entry (row r, column c) occupies re/im[(4r + c)·stride + i], so each
  * update streams over contiguous arrays. The kernel works through the grid in blocks of `stride`
  * points so the whole matrix stays in the first-level cache while every element is applied;
- * `offset` says where the block starts in the element's full-grid impedance arrays. Appending an element post-multiplies T by the element's
- * chain matrix; a series element only adds to columns 2–3 (B and D), a shunt element only to
- * columns 0–1 (A and C), which is why each update below touches half the matrix.
+ * `offset` says where the block starts in the element's full-grid operand arrays. Appending an
+ * element post-multiplies T by its chain matrix: a series element only adds to columns 2–3
+ * (B and D), a shunt element only to columns 0–1 (A and C).
  */
 export interface ChainBuffer {
   readonly re: Float64Array;
   readonly im: Float64Array;
-  /** Distance between two entries of the matrix; the grid may use fewer points than this. */
+  /** Distance between two entries of the matrix; a block may use fewer points than this. */
   readonly stride: number;
 }
 
@@ -33,46 +38,40 @@ export function resetToIdentity(chain: ChainBuffer, count: number): void {
 }
 
 /**
- * column[target] += column[source] · (zr + j zi) for all four rows: the building block of every
- * update. Rows are unrolled so the loop body holds no index arithmetic beyond offsets.
+ * For every row: column[target] += (column[a] − column[b]·[b ≥ 0])·f, and when `mirror` is set,
+ * column[mirrorTarget] −= the same product. Every update below is one call.
  */
 function addScaledColumn(
   chain: ChainBuffer,
   count: number,
-  source: number,
+  a: number,
+  b: number,
   target: number,
+  mirrorTarget: number,
   factorRe: Float64Array,
   factorIm: Float64Array,
   offset: number,
 ): void {
   const { re, im, stride } = chain;
-  const s0 = source * stride;
-  const s1 = (4 + source) * stride;
-  const s2 = (8 + source) * stride;
-  const s3 = (12 + source) * stride;
-  const t0 = target * stride;
-  const t1 = (4 + target) * stride;
-  const t2 = (8 + target) * stride;
-  const t3 = (12 + target) * stride;
-  for (let i = 0; i < count; i += 1) {
-    const zr = factorRe[offset + i]!;
-    const zi = factorIm[offset + i]!;
-    let ar = re[s0 + i]!;
-    let ai = im[s0 + i]!;
-    re[t0 + i]! += ar * zr - ai * zi;
-    im[t0 + i]! += ar * zi + ai * zr;
-    ar = re[s1 + i]!;
-    ai = im[s1 + i]!;
-    re[t1 + i]! += ar * zr - ai * zi;
-    im[t1 + i]! += ar * zi + ai * zr;
-    ar = re[s2 + i]!;
-    ai = im[s2 + i]!;
-    re[t2 + i]! += ar * zr - ai * zi;
-    im[t2 + i]! += ar * zi + ai * zr;
-    ar = re[s3 + i]!;
-    ai = im[s3 + i]!;
-    re[t3 + i]! += ar * zr - ai * zi;
-    im[t3 + i]! += ar * zi + ai * zr;
+  for (let row = 0; row < 4; row += 1) {
+    const ca = (4 * row + a) * stride;
+    const cb = (4 * row + (b < 0 ? a : b)) * stride;
+    const useB = b < 0 ? 0 : 1;
+    const t1 = (4 * row + target) * stride;
+    const t2 = (4 * row + (mirrorTarget < 0 ? target : mirrorTarget)) * stride;
+    const mirror = mirrorTarget < 0 ? 0 : 1;
+    for (let i = 0; i < count; i += 1) {
+      const sr = re[ca + i]! - useB * re[cb + i]!;
+      const si = im[ca + i]! - useB * im[cb + i]!;
+      const fr = factorRe[offset + i]!;
+      const fi = factorIm[offset + i]!;
+      const pr = sr * fr - si * fi;
+      const pi = sr * fi + si * fr;
+      re[t1 + i]! += pr;
+      im[t1 + i]! += pi;
+      re[t2 + i]! -= mirror * pr;
+      im[t2 + i]! -= mirror * pi;
+    }
   }
 }
 
@@ -85,7 +84,7 @@ export function appendSeries(
   zIm: Float64Array,
   offset = 0,
 ): void {
-  addScaledColumn(chain, count, line, line + 2, zRe, zIm, offset);
+  addScaledColumn(chain, count, line, -1, line + 2, -1, zRe, zIm, offset);
 }
 
 /** Shunt admittance y from line `line` to ground: A[:,line] += B[:,line]·y, C likewise. */
@@ -97,7 +96,7 @@ export function appendShuntToGround(
   yIm: Float64Array,
   offset = 0,
 ): void {
-  addScaledColumn(chain, count, line + 2, line, yRe, yIm, offset);
+  addScaledColumn(chain, count, line + 2, -1, line, -1, yRe, yIm, offset);
 }
 
 /**
@@ -111,30 +110,12 @@ export function appendShuntLineToLine(
   yIm: Float64Array,
   offset = 0,
 ): void {
-  const { re, im, stride } = chain;
-  for (let row = 0; row < 4; row += 1) {
-    const c0 = 4 * row * stride;
-    const c1 = c0 + stride;
-    const c2 = c1 + stride;
-    const c3 = c2 + stride;
-    for (let i = 0; i < count; i += 1) {
-      const dr = re[c2 + i]! - re[c3 + i]!;
-      const di = im[c2 + i]! - im[c3 + i]!;
-      const yr = yRe[offset + i]!;
-      const yi = yIm[offset + i]!;
-      const pr = dr * yr - di * yi;
-      const pi = dr * yi + di * yr;
-      re[c0 + i]! += pr;
-      im[c0 + i]! += pi;
-      re[c1 + i]! -= pr;
-      im[c1 + i]! -= pi;
-    }
-  }
+  addScaledColumn(chain, count, 2, 3, 0, 1, yRe, yIm, offset);
 }
 
 /**
  * A symmetric coupled series pair with impedance matrix [[zs, zm], [zm, zs]]:
- * column2 += column0·zs + column1·zm and column3 += column0·zm + column1·zs, one row at a time.
+ * column2 += column0·zs + column1·zm and column3 += column0·zm + column1·zs.
  */
 export function appendCoupledSeries(
   chain: ChainBuffer,

@@ -11,6 +11,7 @@ import {
   resetToIdentity,
 } from './chain-ops.ts';
 import { allocateResponse, type NetworkResponse, responseHead } from './network-response.ts';
+import { addCoupledSeries, addSeriesInLine, addShunt, type LineImpedance, startAtReceivers, writeInputImpedances } from './input-impedance.ts';
 import { terminate, type TerminationImpedances } from './terminate.ts';
 
 /**
@@ -24,15 +25,20 @@ export interface Workspace {
   /** Per element: its impedance as evaluated (two-terminal: Z; coupled pair: even and odd). */
   readonly impedance: readonly ElementScratch[];
   readonly terminations: TerminationImpedances;
+  /** Line impedance looking towards the receivers, walked back element by element. */
+  readonly lookingIn: LineImpedance;
 }
 
 interface ElementScratch {
   /** Two-terminal: Z. Coupled pair: even (common-mode path) impedance per winding. */
   readonly primary: ComplexColumns;
-  /** Two-terminal shunt: Y = 1/Z. Coupled pair: odd (leakage path) impedance per winding. */
+  /** Coupled pair only: odd (leakage path) impedance per winding. */
   readonly secondary: ComplexColumns;
-  /** Coupled pair only: self and mutual entries of the 2×2 impedance matrix. */
-  readonly self: ComplexColumns;
+  /**
+   * What the chain update multiplies by: z (series), y = 1/z (shunt), or, for a coupled pair,
+   * the self impedance (even + odd)/2 here and the mutual one (even − odd)/2 in `mutual`.
+   */
+  readonly operand: ComplexColumns;
   readonly mutual: ComplexColumns;
 }
 
@@ -44,11 +50,10 @@ export function createWorkspace(network: Network, capacity: number): Workspace {
     chain: allocateChain(CHAIN_BLOCK),
     impedance: network.elements.map((element) => {
       const coupled = element.kind === 'coupled-pair';
-      const shunt = element.kind === 'two-terminal' && element.placement !== 'series-line1' && element.placement !== 'series-line2';
       return {
         primary: complexColumns(capacity),
-        secondary: coupled || shunt ? complexColumns(capacity) : EMPTY,
-        self: coupled ? complexColumns(capacity) : EMPTY,
+        secondary: coupled ? complexColumns(capacity) : EMPTY,
+        operand: complexColumns(capacity),
         mutual: coupled ? complexColumns(capacity) : EMPTY,
       };
     }),
@@ -58,6 +63,7 @@ export function createWorkspace(network: Network, capacity: number): Workspace {
       receiverLine1: complexColumns(capacity),
       receiverLine2: complexColumns(capacity),
     },
+    lookingIn: { z00: complexColumns(capacity), z01: complexColumns(capacity), z11: complexColumns(capacity) },
   };
 }
 
@@ -93,50 +99,87 @@ export function evaluateNetwork(
     for (let e = 0; e < elements.length; e += 1) appendElement(elements[e]!, workspace.impedance[e]!, chain, length, start);
     terminate(chain, length, terminations, network.resistiveSystems, out, start);
   }
+  inputImpedance(network, workspace, count, out);
+}
+
+/** Walk from the receivers back to the source, element by element (see input-impedance.ts). */
+function inputImpedance(network: Network, workspace: Workspace, count: number, out: NetworkResponse): void {
+  const state = workspace.lookingIn;
+  startAtReceivers(state, workspace.terminations.receiverLine1, workspace.terminations.receiverLine2, count);
+  for (let e = network.elements.length - 1; e >= 0; e -= 1) {
+    const element = network.elements[e]!;
+    const scratch = workspace.impedance[e]!;
+    if (element.kind === 'coupled-pair') {
+      addCoupledSeries(state, scratch.operand, scratch.mutual, count);
+      continue;
+    }
+    switch (element.placement) {
+      case 'series-line1':
+        addSeriesInLine(state, scratch.operand, 0, count);
+        break;
+      case 'series-line2':
+        addSeriesInLine(state, scratch.operand, 1, count);
+        break;
+      case 'line1-to-ground':
+        addShunt(state, scratch.operand, 1, 0, count, out.flags);
+        break;
+      case 'line2-to-ground':
+        addShunt(state, scratch.operand, 0, 1, count, out.flags);
+        break;
+      case 'line-to-line':
+        addShunt(state, scratch.operand, 1, -1, count, out.flags);
+        break;
+    }
+  }
+  writeInputImpedances(state, out.inputImpedanceCm, out.inputImpedanceDm, count, out.flags);
 }
 
 /** Evaluate an element's impedance over the grid and the operand its chain update needs. */
 function prepareOperand(element: NetworkElement, f: Float64Array, scratch: ElementScratch, flags: Uint8Array): void {
   const count = f.length;
+  const { operand } = scratch;
   if (element.kind === 'coupled-pair') {
-    const { primary: even, secondary: odd, self, mutual } = scratch;
+    const { primary: even, secondary: odd, mutual } = scratch;
     element.eigenImpedances(f, even, odd, flags);
     for (let i = 0; i < count; i += 1) {
-      self.re[i] = 0.5 * (even.re[i]! + odd.re[i]!);
-      self.im[i] = 0.5 * (even.im[i]! + odd.im[i]!);
+      operand.re[i] = 0.5 * (even.re[i]! + odd.re[i]!);
+      operand.im[i] = 0.5 * (even.im[i]! + odd.im[i]!);
       mutual.re[i] = 0.5 * (even.re[i]! - odd.re[i]!);
       mutual.im[i] = 0.5 * (even.im[i]! - odd.im[i]!);
     }
     return;
   }
-  element.impedance.evaluate(f, scratch.primary, flags);
-  if (element.placement !== 'series-line1' && element.placement !== 'series-line2') {
-    invertInto(scratch.primary, scratch.secondary, count, flags);
+  const z = scratch.primary;
+  element.impedance.evaluate(f, z, flags);
+  if (element.placement === 'series-line1' || element.placement === 'series-line2') {
+    operand.re.set(z.re.subarray(0, count));
+    operand.im.set(z.im.subarray(0, count));
+  } else {
+    invertInto(z, operand, count, flags);
   }
 }
 
 function appendElement(element: NetworkElement, scratch: ElementScratch, chain: ChainBuffer, count: number, offset: number): void {
+  const { operand } = scratch;
   if (element.kind === 'coupled-pair') {
-    appendCoupledSeries(chain, count, scratch.self.re, scratch.self.im, scratch.mutual.re, scratch.mutual.im, offset);
+    appendCoupledSeries(chain, count, operand.re, operand.im, scratch.mutual.re, scratch.mutual.im, offset);
     return;
   }
-  const z = scratch.primary;
-  const y = scratch.secondary;
   switch (element.placement) {
     case 'series-line1':
-      appendSeries(chain, count, 0, z.re, z.im, offset);
+      appendSeries(chain, count, 0, operand.re, operand.im, offset);
       return;
     case 'series-line2':
-      appendSeries(chain, count, 1, z.re, z.im, offset);
+      appendSeries(chain, count, 1, operand.re, operand.im, offset);
       return;
     case 'line1-to-ground':
-      appendShuntToGround(chain, count, 0, y.re, y.im, offset);
+      appendShuntToGround(chain, count, 0, operand.re, operand.im, offset);
       return;
     case 'line2-to-ground':
-      appendShuntToGround(chain, count, 1, y.re, y.im, offset);
+      appendShuntToGround(chain, count, 1, operand.re, operand.im, offset);
       return;
     case 'line-to-line':
-      appendShuntLineToLine(chain, count, y.re, y.im, offset);
+      appendShuntLineToLine(chain, count, operand.re, operand.im, offset);
       return;
   }
 }

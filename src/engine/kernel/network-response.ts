@@ -9,23 +9,29 @@ import { type ComplexColumns, headOf } from '../complex-columns.ts';
  */
 export interface NetworkResponse {
   readonly count: number;
-  /** Voltage at each line's receiving network, per volt of common-mode / differential-mode EMF. */
+  /**
+   * Mode voltages at the receivers, v_c = (V1 + V2)/2 and v_d = (V1 − V2)/2, per volt of
+   * common-mode / differential-mode EMF: cmFromCm is T_CM, dmFromDm is T_DM, the other two are
+   * the mode conversions (zero for a symmetric filter between matched receivers).
+   */
+  readonly cmFromCm: ComplexColumns;
+  readonly dmFromCm: ComplexColumns;
+  readonly cmFromDm: ComplexColumns;
+  readonly dmFromDm: ComplexColumns;
+  /** Voltage at each line's receiving network, per volt of CM / DM EMF (v_c ± v_d). */
   readonly line1FromCm: ComplexColumns;
   readonly line2FromCm: ComplexColumns;
   readonly line1FromDm: ComplexColumns;
   readonly line2FromDm: ComplexColumns;
-  /** The same with no filter: source wired straight to the receiving networks. */
-  readonly bareLine1FromCm: ComplexColumns;
-  readonly bareLine2FromCm: ComplexColumns;
-  readonly bareLine1FromDm: ComplexColumns;
-  readonly bareLine2FromDm: ComplexColumns;
+  /** T_CM and T_DM with no filter: source wired straight to the receiving networks. */
+  readonly bareCmFromCm: ComplexColumns;
+  readonly bareDmFromDm: ComplexColumns;
   /** Looking into the filter from the source side, receivers connected: lines joined (CM), line to line (DM). */
   readonly inputImpedanceCm: ComplexColumns;
   readonly inputImpedanceDm: ComplexColumns;
   /**
    * Insertion loss as a power ratio |V_without / V_with|² for each resistive system (CISPR 17
-   * style), common mode and differential mode. Linear, so the kernel takes no logarithms;
-   * insertionLossDb() converts.
+   * style), common mode and differential mode. Linear, so the kernel takes no logarithms.
    */
   readonly resistiveCmLoss: readonly Float64Array[];
   readonly resistiveDmLoss: readonly Float64Array[];
@@ -34,14 +40,16 @@ export interface NetworkResponse {
 }
 
 export const RESPONSE_COMPLEX_KEYS = [
+  'cmFromCm',
+  'dmFromCm',
+  'cmFromDm',
+  'dmFromDm',
   'line1FromCm',
   'line2FromCm',
   'line1FromDm',
   'line2FromDm',
-  'bareLine1FromCm',
-  'bareLine2FromCm',
-  'bareLine1FromDm',
-  'bareLine2FromDm',
+  'bareCmFromCm',
+  'bareDmFromDm',
   'inputImpedanceCm',
   'inputImpedanceDm',
 ] as const;

@@ -42,8 +42,9 @@ function store(out: ComplexColumns, flags: Uint8Array, i: number, re: number, im
 }
 
 /**
- * z / (1 + jωC·z): a branch z with capacitance C across it (winding capacitance).
- * Written so that z = 0 stays exactly 0 and a lossless resonance is limited, not divided by zero.
+ * z / (1 + (G + jωC)·z): a branch z with conductance G and capacitance C across it (core loss,
+ * winding capacitance). Written so that z = 0 stays exactly 0 and a lossless resonance is
+ * limited, not divided by zero.
  */
 function storeWithParallelCapacitance(
   out: ComplexColumns,
@@ -52,13 +53,14 @@ function storeWithParallelCapacitance(
   zr: number,
   zi: number,
   omegaC: number,
+  conductance = 0,
 ): void {
-  if (omegaC === 0) {
+  if (omegaC === 0 && conductance === 0) {
     store(out, flags, i, zr, zi);
     return;
   }
-  const dr = 1 - omegaC * zi;
-  const di = omegaC * zr;
+  const dr = 1 + conductance * zr - omegaC * zi;
+  const di = omegaC * zr + conductance * zi;
   const d2 = dr * dr + di * di;
   if (d2 === 0) {
     store(out, flags, i, Infinity, 0);
@@ -174,7 +176,8 @@ function measuredImpedance(table: PreparedTable, f: Float64Array, out: ComplexCo
  * The two eigen-impedances of a symmetric common-mode choke, per winding:
  *   even (both windings carry equal currents): s + m, the common-mode path;
  *   odd (equal and opposite currents):         s − m, the leakage path;
- * each with the winding capacitance across it. The 2×2 series impedance matrix is
+ * each with the winding capacitance (and loss resistance, if given) across it. The 2×2 series
+ * impedance matrix is
  *   [[(even+odd)/2, (even−odd)/2], [(even−odd)/2, (even+odd)/2]].
  * The relaxation acts on the coupled (magnetising) part M only; leakage flux runs mostly in air.
  */
@@ -187,6 +190,7 @@ export function chokeEigenImpedances(
 ): void {
   const { mutual, leakage } = chokeInductances(part);
   const fr = relaxationFrequency(part.permeability);
+  const conductance = part.parallelResistance === undefined ? 0 : 1 / part.parallelResistance;
   for (let i = 0; i < f.length; i += 1) {
     const omega = TWO_PI * f[i]!;
     const x = f[i]! / fr;
@@ -194,8 +198,8 @@ export function chokeEigenImpedances(
     const mr = scale * x;
     const mi = scale;
     const omegaC = omega * part.windingCapacitance;
-    storeWithParallelCapacitance(even, flags, i, part.dcr + 2 * mr, omega * leakage + 2 * mi, omegaC);
-    storeWithParallelCapacitance(odd, flags, i, part.dcr, omega * leakage, omegaC);
+    storeWithParallelCapacitance(even, flags, i, part.dcr + 2 * mr, omega * leakage + 2 * mi, omegaC, conductance);
+    storeWithParallelCapacitance(odd, flags, i, part.dcr, omega * leakage, omegaC, conductance);
   }
 }
 

@@ -100,25 +100,28 @@ function referenceTableImpedance(table: { frequencyHz: number[]; magnitudeOhm: n
   return new Complex({ abs: magnitude, arg: phase });
 }
 
-/** The choke's 2×2 series impedance matrix, winding capacitance across each winding. */
+/**
+ * The choke's 2×2 series impedance matrix. A symmetric coupled pair has two natural currents:
+ * equal in both windings (impedance s + m) and opposite (s − m). The winding capacitance and
+ * loss resistance across each winding load each of them separately, and
+ * Z = ½·[[p + q, p − q], [p − q, p + q]] puts them back together. (Forming Z from s and m first
+ * would keep the small s − m as a difference of two large numbers.)
+ */
 export function referenceChokeMatrix(part: CommonModeChoke, frequencyHz: number): Matrix {
   const omega = 2 * Math.PI * frequencyHz;
   const { mutual, leakage } = chokeInductances(part);
   const mu = relativePermeability(part.permeability, frequencyHz);
   const m = j.mul(omega * mutual).mul(mu);
-  const self = c(part.dcr).add(j.mul(omega * leakage)).add(m);
-  const z: Matrix = [
-    [self, m],
-    [m, self],
+  const even = c(part.dcr).add(j.mul(omega * leakage)).add(m.mul(2));
+  const odd = c(part.dcr).add(j.mul(omega * leakage));
+  const across = j.mul(omega * part.windingCapacitance).add(part.parallelResistance === undefined ? 0 : 1 / part.parallelResistance);
+  const loaded = (z: C): C => z.div(ONE.add(across.mul(z)));
+  const p = loaded(even);
+  const q = loaded(odd);
+  return [
+    [p.add(q).div(2), p.sub(q).div(2)],
+    [p.sub(q).div(2), p.add(q).div(2)],
   ];
-  if (part.windingCapacitance === 0) return z;
-  // Z (I + jωC Z)⁻¹
-  const jwc = j.mul(omega * part.windingCapacitance);
-  const inner: Matrix = [
-    [ONE.add(jwc.mul(self)), jwc.mul(m)],
-    [jwc.mul(m), ONE.add(jwc.mul(self))],
-  ];
-  return multiply(z, inverse2(inner));
 }
 
 export function referenceReceiverImpedance(receiver: Receiver, frequencyHz: number): C {
@@ -175,62 +178,79 @@ function elementChain(z2x2: Matrix, series: boolean): Matrix {
   return t;
 }
 
-/** The filter's 4×4 chain matrix at one frequency (source side first). */
-export function referenceChainMatrix(design: Design, frequencyHz: number): Matrix {
-  let chain = identity(4);
+/** Each enabled element's 4×4 chain matrix in line coordinates, source side first. */
+function elementChains(design: Design, frequencyHz: number): Matrix[] {
+  const chains: Matrix[] = [];
   for (const stage of design.stages) {
     for (const element of stage.elements) {
       if (!element.enabled) continue;
       const part = element.part;
       if (part.kind === 'common-mode-choke') {
-        chain = multiply(chain, elementChain(referenceChokeMatrix(part, frequencyHz), true));
+        chains.push(elementChain(referenceChokeMatrix(part, frequencyHz), true));
         continue;
       }
       const z = referencePartImpedance(part, frequencyHz);
       const y = ONE.div(z);
       switch (element.placement) {
         case 'series-line1':
-          chain = multiply(chain, elementChain([[z, ZERO], [ZERO, ZERO]], true));
+          chains.push(elementChain([[z, ZERO], [ZERO, ZERO]], true));
           break;
         case 'series-line2':
-          chain = multiply(chain, elementChain([[ZERO, ZERO], [ZERO, z]], true));
+          chains.push(elementChain([[ZERO, ZERO], [ZERO, z]], true));
           break;
         case 'line1-to-ground':
-          chain = multiply(chain, elementChain([[y, ZERO], [ZERO, ZERO]], false));
+          chains.push(elementChain([[y, ZERO], [ZERO, ZERO]], false));
           break;
         case 'line2-to-ground':
-          chain = multiply(chain, elementChain([[ZERO, ZERO], [ZERO, y]], false));
+          chains.push(elementChain([[ZERO, ZERO], [ZERO, y]], false));
           break;
         case 'line-to-line':
-          chain = multiply(chain, elementChain([[y, y.neg()], [y.neg(), y]], false));
+          chains.push(elementChain([[y, y.neg()], [y.neg(), y]], false));
           break;
         case 'both-lines-coupled':
           throw new Error('a coupled placement needs a common-mode choke');
       }
     }
   }
-  return chain;
+  return chains;
+}
+
+/** The filter's 4×4 chain matrix in line coordinates (source side first). */
+export function referenceChainMatrix(design: Design, frequencyHz: number): Matrix {
+  return elementChains(design, frequencyHz).reduce((chain, element) => multiply(chain, element), identity(4));
 }
 
 /**
  * Solve the terminated network: unknowns x = [V_out; I_out];
- * source rows [P_s Q_s]·T·x = e, load rows [P_l Q_l]·x = 0. Gaussian elimination, partial pivoting.
+ * source rows [P_s Q_s]·T·x = e, load rows [P_l Q_l]·x = 0. Gaussian elimination with partial
+ * pivoting on an equilibrated system: currents are solved as R0·I (R0 = 50 Ω) so all unknowns
+ * are volts, and each row is scaled by its largest entry, so no row or column dominates the
+ * pivot choice by its units alone.
  */
 function solveTerminated(t: Matrix, ps: Matrix, qs: Matrix, e: C[], pl: Matrix, ql: Matrix): C[] {
+  const R0 = 50;
   const sourceRows = multiply(
     ps.map((row, r) => [...row, ...qs[r]!]),
     t,
   );
   const loadRows = pl.map((row, r) => [...row, ...ql[r]!]);
-  const a = [...sourceRows, ...loadRows].map((row) => [...row]);
-  const b = [e[0]!, e[1]!, ZERO, ZERO];
+  const rhs = [e[0]!, e[1]!, ZERO, ZERO];
+  const a: C[][] = [];
+  const b: C[] = [];
+  [...sourceRows, ...loadRows].forEach((row, r) => {
+    const scaled = row.map((value, k) => (k >= 2 ? value.div(R0) : value));
+    const largest = Math.max(...scaled.map((value) => value.abs()));
+    if (largest === 0) throw new Error('singular terminated network');
+    a.push(scaled.map((value) => value.div(largest)));
+    b.push(rhs[r]!.div(largest));
+  });
   const n = 4;
   for (let col = 0; col < n; col += 1) {
     let pivot = col;
     for (let r = col + 1; r < n; r += 1) if (a[r]![col]!.abs() > a[pivot]![col]!.abs()) pivot = r;
     [a[col], a[pivot]] = [a[pivot]!, a[col]!];
     [b[col], b[pivot]] = [b[pivot]!, b[col]!];
-    if (a[col]![col]!.abs() === 0) throw new Error('singular terminated network');
+    if (a[col]![col]!.abs() < 1e-14) throw new Error('singular terminated network');
     for (let r = col + 1; r < n; r += 1) {
       const factor = a[r]![col]!.div(a[col]![col]!);
       for (let k = col; k < n; k += 1) a[r]![k] = a[r]![k]!.sub(factor.mul(a[col]![k]!));
@@ -243,7 +263,7 @@ function solveTerminated(t: Matrix, ps: Matrix, qs: Matrix, e: C[], pl: Matrix, 
     for (let k = r + 1; k < n; k += 1) sum = sum.sub(a[r]![k]!.mul(x[k]!));
     x[r] = sum.div(a[r]![r]!);
   }
-  return x;
+  return [x[0]!, x[1]!, x[2]!.div(R0), x[3]!.div(R0)];
 }
 
 function diagonal(a: C, b: C): Matrix {
@@ -270,37 +290,62 @@ export function referenceEvaluate(
     const zl2 = referenceReceiverImpedance(design.receivers.line2, f);
     const zcm = referencePartImpedance(design.noiseSource.commonMode.impedance, f);
     const zdm = referencePartImpedance(design.noiseSource.differentialMode.impedance, f);
-    // Source: half the DM impedance in each line, the CM impedance from their midpoint to ground.
-    const zSource: Matrix = [
-      [zcm.add(zdm.div(2)), zcm],
-      [zcm, zcm.add(zdm.div(2))],
-    ];
     const zLoad = diagonal(zl1, zl2);
     const id = identity(2);
-    const negLoad = scale(zLoad, c(-1));
     const write = (column: { re: Float64Array; im: Float64Array }, value: C): void => {
       column.re[i] = value.re;
       column.im[i] = value.im;
     };
-    for (const [chain, prefix] of [
-      [t, 'line'],
-      [identity(4), 'bareLine'],
-    ] as const) {
-      const cm = solveTerminated(chain, id, zSource, [ONE, ONE], id, negLoad);
-      const dm = solveTerminated(chain, id, zSource, [ONE, c(-1)], id, negLoad);
-      write(out[`${prefix}1FromCm`], cm[0]!);
-      write(out[`${prefix}2FromCm`], cm[1]!);
-      write(out[`${prefix}1FromDm`], dm[0]!);
-      write(out[`${prefix}2FromDm`], dm[1]!);
-    }
+    // Terminate the chain by the receivers, V_out = Z_L·I_out, which leaves two source equations
+    // N·I_out = E with N = (A Z_L + B) + Z_S (C Z_L + D). With Z_S = (Z_dm/2)·I + Z_cm·u uᵀ
+    // (u = [1, 1]) this is N = K + Z_cm·u wᵀ, K = X + (Z_dm/2)·W, wᵀ = uᵀ W, and the
+    // matrix determinant lemma gives det N = det K + Z_cm·wᵀ adj(K) u without subtracting the
+    // large rank-one part from itself (docs/engine-math.md §4.1).
+    const solveInCircuit = (chain: Matrix, emf: C[]): C[] => {
+      const x = add(multiply(block(chain, 0, 0), zLoad), block(chain, 0, 2));
+      const w = add(multiply(block(chain, 2, 0), zLoad), block(chain, 2, 2));
+      const k = add(x, scale(w, zdm.div(2)));
+      const wRow = [w[0]![0]!.add(w[1]![0]!), w[0]![1]!.add(w[1]![1]!)];
+      const adjK: Matrix = [
+        [k[1]![1]!, k[0]![1]!.neg()],
+        [k[1]![0]!.neg(), k[0]![0]!],
+      ];
+      const adjKu = [adjK[0]![0]!.add(adjK[0]![1]!), adjK[1]![0]!.add(adjK[1]![1]!)];
+      const detK = k[0]![0]!.mul(k[1]![1]!).sub(k[0]![1]!.mul(k[1]![0]!));
+      const detN = detK.add(zcm.mul(wRow[0]!.mul(adjKu[0]!).add(wRow[1]!.mul(adjKu[1]!))));
+      // adj(N) = adj(K) + Z_cm·adj(u wᵀ), adj(u wᵀ) = [[w1, −w1], [−w0, w0]]
+      const adjN: Matrix = [
+        [adjK[0]![0]!.add(zcm.mul(wRow[1]!)), adjK[0]![1]!.sub(zcm.mul(wRow[1]!))],
+        [adjK[1]![0]!.sub(zcm.mul(wRow[0]!)), adjK[1]![1]!.add(zcm.mul(wRow[0]!))],
+      ];
+      const current = multiply(adjN, [[emf[0]!], [emf[1]!]]).map((row) => row[0]!.div(detN));
+      return [zl1.mul(current[0]!), zl2.mul(current[1]!)];
+    };
+    const cm = solveInCircuit(t, [ONE, ONE]);
+    const dm = solveInCircuit(t, [ONE, c(-1)]);
+    write(out.line1FromCm, cm[0]!);
+    write(out.line2FromCm, cm[1]!);
+    write(out.line1FromDm, dm[0]!);
+    write(out.line2FromDm, dm[1]!);
+    write(out.cmFromCm, cm[0]!.add(cm[1]!).div(2));
+    write(out.dmFromCm, cm[0]!.sub(cm[1]!).div(2));
+    write(out.cmFromDm, dm[0]!.add(dm[1]!).div(2));
+    write(out.dmFromDm, dm[0]!.sub(dm[1]!).div(2));
+    const bareCm = solveInCircuit(identity(4), [ONE, ONE]);
+    const bareDm = solveInCircuit(identity(4), [ONE, c(-1)]);
+    write(out.bareCmFromCm, bareCm[0]!.add(bareCm[1]!).div(2));
+    write(out.bareDmFromDm, bareDm[0]!.sub(bareDm[1]!).div(2));
 
-    // Z_in = (A Z_L + B)(C Z_L + D)⁻¹
-    const x = add(multiply(block(t, 0, 0), zLoad), block(t, 0, 2));
-    const w = add(multiply(block(t, 2, 0), zLoad), block(t, 2, 2));
-    const zin = multiply(x, inverse2(w));
-    write(out.inputImpedanceDm, zin[0]![0]!.sub(zin[0]![1]!).sub(zin[1]![0]!).add(zin[1]![1]!));
-    const yin = inverse2(zin);
-    write(out.inputImpedanceCm, ONE.div(yin[0]![0]!.add(yin[0]![1]!).add(yin[1]![0]!).add(yin[1]![1]!)));
+    // Input impedance: walk from the receivers back to the source, adding each series
+    // impedance matrix and, for each shunt, its admittance matrix. Line to line (I1 = −I2):
+    // Z11 − Z12 − Z21 + Z22; lines joined (V1 = V2): 1 / (sum of the entries of Z⁻¹).
+    let zIn = zLoad;
+    for (const element of elementChains(design, f).reverse()) {
+      zIn = inverse2(add(inverse2(add(zIn, block(element, 0, 2))), block(element, 2, 0)));
+    }
+    write(out.inputImpedanceDm, zIn[0]![0]!.sub(zIn[0]![1]!).sub(zIn[1]![0]!).add(zIn[1]![1]!));
+    const yIn = inverse2(zIn);
+    write(out.inputImpedanceCm, ONE.div(yIn[0]![0]!.add(yIn[0]![1]!).add(yIn[1]![0]!).add(yIn[1]![1]!)));
 
     systems.forEach((system, s) => {
       const rs = system.sourceOhm;
@@ -311,20 +356,31 @@ export function referenceEvaluate(
         [ONE, c(-1)],
         [ONE, ZERO],
       ];
-      const cm = solveTerminated(
-        t,
-        tie,
-        [
+      const sourceRows: Matrix = [
+        [ZERO, ZERO],
+        [c(rs), c(rs)],
+      ];
+      const loadRows: Matrix = [
+        [ZERO, ZERO],
+        [c(-rl), c(-rl)],
+      ];
+      let cm: C[];
+      try {
+        cm = solveTerminated(t, tie, sourceRows, [ZERO, ONE], tie, loadRows);
+      } catch {
+        // No impedance around the loop the two joined lines form (no series part, or an ideal
+        // choke): the split of current between the lines is free and changes no voltage. Fix it
+        // as equal (I1 = I2) instead of tying the load ends, which that equal split implies.
+        const equalSplit: Matrix = [
           [ZERO, ZERO],
-          [c(rs), c(rs)],
-        ],
-        [ZERO, ONE],
-        tie,
-        [
-          [ZERO, ZERO],
+          [ONE, ZERO],
+        ];
+        const splitRows: Matrix = [
+          [ONE, c(-1)],
           [c(-rl), c(-rl)],
-        ],
-      );
+        ];
+        cm = solveTerminated(t, tie, sourceRows, [ZERO, ONE], equalSplit, splitRows);
+      }
       out.resistiveCmLoss[s]![i] = (without / cm[0]!.abs()) ** 2;
       // Differential mode: r_s/2 and r_l/2 per line, EMF ±1/2, measured line to line.
       const dm = solveTerminated(t, id, scale(id, c(rs / 2)), [c(0.5), c(-0.5)], id, scale(id, c(-rl / 2)));

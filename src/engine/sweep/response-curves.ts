@@ -1,44 +1,20 @@
 import type { NetworkResponse } from '../kernel/network-response.ts';
 import { magnitudeToDb, powerRatioToDb } from '../point-flags.ts';
 
-/**
- * Mode quantities derived from the per-line receiver voltages at one point:
- *   T_CM = (V1 + V2)/2 per volt of CM EMF, T_DM = (V1 − V2)/2 per volt of DM EMF,
- *   CM→DM = (V1 − V2)/2 per volt of CM EMF, DM→CM = (V1 + V2)/2 per volt of DM EMF.
- */
+/** Mode quantities, as stored by the kernel (see NetworkResponse). */
 export type ModeQuantity = 'transferCm' | 'transferDm' | 'conversionCmToDm' | 'conversionDmToCm' | 'bareTransferCm' | 'bareTransferDm';
 
-export function modeQuantity(response: NetworkResponse, quantity: ModeQuantity, i: number): { re: number; im: number } {
-  switch (quantity) {
-    case 'transferCm':
-      return half(response.line1FromCm.re[i]!, response.line1FromCm.im[i]!, response.line2FromCm.re[i]!, response.line2FromCm.im[i]!, 1);
-    case 'transferDm':
-      return half(response.line1FromDm.re[i]!, response.line1FromDm.im[i]!, response.line2FromDm.re[i]!, response.line2FromDm.im[i]!, -1);
-    case 'conversionCmToDm':
-      return half(response.line1FromCm.re[i]!, response.line1FromCm.im[i]!, response.line2FromCm.re[i]!, response.line2FromCm.im[i]!, -1);
-    case 'conversionDmToCm':
-      return half(response.line1FromDm.re[i]!, response.line1FromDm.im[i]!, response.line2FromDm.re[i]!, response.line2FromDm.im[i]!, 1);
-    case 'bareTransferCm':
-      return half(
-        response.bareLine1FromCm.re[i]!,
-        response.bareLine1FromCm.im[i]!,
-        response.bareLine2FromCm.re[i]!,
-        response.bareLine2FromCm.im[i]!,
-        1,
-      );
-    case 'bareTransferDm':
-      return half(
-        response.bareLine1FromDm.re[i]!,
-        response.bareLine1FromDm.im[i]!,
-        response.bareLine2FromDm.re[i]!,
-        response.bareLine2FromDm.im[i]!,
-        -1,
-      );
-  }
-}
+const MODE_COLUMN = {
+  transferCm: 'cmFromCm',
+  transferDm: 'dmFromDm',
+  conversionCmToDm: 'dmFromCm',
+  conversionDmToCm: 'cmFromDm',
+  bareTransferCm: 'bareCmFromCm',
+  bareTransferDm: 'bareDmFromDm',
+} as const satisfies Record<ModeQuantity, keyof NetworkResponse>;
 
-function half(ar: number, ai: number, br: number, bi: number, sign: 1 | -1): { re: number; im: number } {
-  return { re: 0.5 * (ar + sign * br), im: 0.5 * (ai + sign * bi) };
+export function modeColumn(response: NetworkResponse, quantity: ModeQuantity): { re: Float64Array; im: Float64Array } {
+  return response[MODE_COLUMN[quantity]];
 }
 
 /** Curves whose peaks and notches are located by refinement. */
@@ -74,8 +50,8 @@ export function refinedCurveDb(response: NetworkResponse, curve: RefinedCurve, i
       return powerRatioToDb(response.resistiveDmLoss[SYSTEM_INDEX.HighLow]![i]!);
     case 'transferCm':
     case 'transferDm': {
-      const value = modeQuantity(response, curve, i);
-      return magnitudeToDb(Math.hypot(value.re, value.im));
+      const column = modeColumn(response, curve);
+      return magnitudeToDb(Math.hypot(column.re[i]!, column.im[i]!));
     }
   }
 }

@@ -6,7 +6,7 @@ import { allocateResponse, type NetworkResponse, responseHead } from '../kernel/
 import { CISPR17_SYSTEMS, compileNetwork, type Network, type NetworkElement } from '../network.ts';
 import { magnitudeToDb, PointFlag, powerRatioToDb } from '../point-flags.ts';
 import { findExtremumCandidates, MAX_REFINED_EXTREMA, type RefinedExtremum, refineExtrema } from './refine-extrema.ts';
-import { modeQuantity, type ModeQuantity } from './response-curves.ts';
+import { modeColumn, type ModeQuantity } from './response-curves.ts';
 import { findSelfResonances, type ImpedanceFunction } from './self-resonance.ts';
 import {
   type ElementSweep,
@@ -176,14 +176,7 @@ function assemble(
   copy(transfers.inputImpedanceCm, response.inputImpedanceCm);
   copy(transfers.inputImpedanceDm, response.inputImpedanceDm);
   const modes: readonly ModeQuantity[] = ['transferCm', 'transferDm', 'conversionCmToDm', 'conversionDmToCm', 'bareTransferCm', 'bareTransferDm'];
-  for (const mode of modes) {
-    const target = transfers[mode];
-    for (let i = 0; i < n; i += 1) {
-      const value = modeQuantity(response, mode, i);
-      target.re[i] = value.re;
-      target.im[i] = value.im;
-    }
-  }
+  for (const mode of modes) copy(transfers[mode], modeColumn(response, mode));
 
   const columns = {} as Record<SweepColumnId, Float64Array>;
   for (const column of SWEEP_COLUMNS) columns[column.id] = arena.take();

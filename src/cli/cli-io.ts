@@ -1,0 +1,43 @@
+/**
+ * Everything the command line needs from its surroundings, injected so that the commands run the
+ * same in Node (src/cli/node-main.ts) and in tests (a fake that keeps files in a Map).
+ */
+export interface CliIo {
+  /**
+   * Read a UTF-8 text file. When it cannot, reject with an Error that carries a Node-style `code`
+   * ("ENOENT", "EISDIR", "EACCES", …): the command line turns the code into words.
+   */
+  readTextFile(path: string): Promise<string>;
+  /** Write (create or replace) a UTF-8 text file; reject like readTextFile. */
+  writeTextFile(path: string, text: string): Promise<void>;
+  /** Write to standard output as is (no newline added). */
+  stdout(text: string): void;
+  /** Write to standard error as is (no newline added). */
+  stderr(text: string): void;
+  /** The tool's version ("0.1.0"). */
+  readonly version: string;
+}
+
+const FILE_ERRORS: Readonly<Record<string, string>> = {
+  ENOENT: 'no such file',
+  ENOTDIR: 'a folder on the path does not exist',
+  EISDIR: 'it is a folder, not a file',
+  EACCES: 'permission denied',
+  EPERM: 'permission denied',
+  EROFS: 'the file system is read-only',
+  ENOSPC: 'no space left on the device',
+  EMFILE: 'too many open files',
+  ENAMETOOLONG: 'the name is too long',
+};
+
+/** Words for why a file could not be read or written. */
+export function describeFileError(error: unknown, action: 'read' | 'write' = 'read'): string {
+  if (typeof error === 'object' && error !== null) {
+    const code = (error as { code?: unknown }).code;
+    if (action === 'write' && code === 'ENOENT') return 'its folder does not exist';
+    if (typeof code === 'string' && FILE_ERRORS[code]) return FILE_ERRORS[code];
+    const message = (error as { message?: unknown }).message;
+    if (typeof message === 'string' && message !== '') return message;
+  }
+  return String(error);
+}

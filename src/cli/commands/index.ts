@@ -1,0 +1,5 @@
+import type { Command } from '../command.ts';
+import { sweepCommand } from './sweep.ts';
+
+/** Every command, in the order the help lists them. A new command is one more entry here. */
+export const COMMANDS: readonly Command[] = [sweepCommand];

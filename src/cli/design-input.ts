@@ -1,0 +1,71 @@
+import { parseJsonText } from '../io/json-text.ts';
+import { type Design, formatIssue, readDesign, type ValidationIssue } from '../model/index.ts';
+import { describeFileError } from './cli-io.ts';
+import type { CommandContext } from './command.ts';
+import { CliError } from './exit-codes.ts';
+
+/** The most problems listed for one file; the rest are counted. */
+export const MAX_LISTED_PROBLEMS = 30;
+
+/** Read a text file named on the command line, or fail with a message that names it. */
+export async function readInputFile(context: CommandContext, path: string, what: string): Promise<string> {
+  if (path === '-') throw new CliError(`reading ${what} from standard input is not supported: give a file name`);
+  try {
+    return await context.io.readTextFile(path);
+  } catch (error) {
+    throw new CliError(`cannot read ${what} ${path}: ${describeFileError(error)}`);
+  }
+}
+
+/**
+ * Read and validate a design file. Bad JSON is located by line and column; each validation issue
+ * is listed with its field path ("stages[0].elements[0].part.capacitance") and, where the path
+ * runs through an element or a stage, that element's or stage's id.
+ */
+export async function loadDesign(context: CommandContext, path: string): Promise<Design> {
+  const text = await readInputFile(context, path, 'the design');
+  const json = parseJsonText(text);
+  if (!json.ok) {
+    const { line, column, message, excerpt } = json.error;
+    throw new CliError(`${path} is not valid JSON: line ${line}, column ${column}: ${message}`, excerpt.split('\n'));
+  }
+  const read = readDesign(json.value);
+  if (read.ok) return read.value;
+  const issues = read.error.issues;
+  throw new CliError(
+    `${path} is not a valid design (${issues.length} problem${issues.length === 1 ? '' : 's'}):`,
+    listProblems(issues.map((issue) => describeIssue(issue, json.value))),
+  );
+}
+
+/** The first MAX_LISTED_PROBLEMS lines and a count of the rest. */
+export function listProblems(lines: readonly string[]): string[] {
+  if (lines.length <= MAX_LISTED_PROBLEMS) return [...lines];
+  return [...lines.slice(0, MAX_LISTED_PROBLEMS), `… and ${lines.length - MAX_LISTED_PROBLEMS} more`];
+}
+
+function describeIssue(issue: ValidationIssue, raw: unknown): string {
+  const owner = ownerOf(issue.path, raw);
+  return owner ? `${formatIssue(issue)} (${owner})` : formatIssue(issue);
+}
+
+/** 'element "CX1"' for a path inside stages[0].elements[0], 'stage "input"' inside stages[0]. */
+function ownerOf(path: string, raw: unknown): string | undefined {
+  const match = /^stages\[(\d+)\](?:\.elements\[(\d+)\])?/u.exec(path);
+  if (!match) return undefined;
+  const stage = itemAt(field(raw, 'stages'), Number(match[1]));
+  if (match[2] !== undefined) {
+    const id = field(itemAt(field(stage, 'elements'), Number(match[2])), 'id');
+    return typeof id === 'string' && !path.endsWith('.id') ? `element "${id}"` : undefined;
+  }
+  const id = field(stage, 'id');
+  return typeof id === 'string' && !path.endsWith('.id') ? `stage "${id}"` : undefined;
+}
+
+function field(value: unknown, name: string): unknown {
+  return typeof value === 'object' && value !== null && !Array.isArray(value) ? (value as Record<string, unknown>)[name] : undefined;
+}
+
+function itemAt(value: unknown, index: number): unknown {
+  return Array.isArray(value) ? (value[index] as unknown) : undefined;
+}

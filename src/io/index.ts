@@ -1,0 +1,49 @@
+/**
+ * Text <-> model: measured tables, Touchstone files, sweep exports, JSON with located errors.
+ * Pure functions of strings: no file system, no DOM, no Node. Callers read and write the files.
+ */
+export { formatLineIssue, type LineIssue, type TextReadResult } from './text-issues.ts';
+export { FREQUENCY_UNITS, parseFrequencyUnit, type FrequencyUnit } from './frequency-unit.ts';
+export {
+  readImpedanceTableCsv,
+  measuredPartFromTable,
+  MAX_TABLE_POINTS,
+  type ImpedanceTableCsv,
+  type ImpedanceTableCsvOptions,
+  type TableDelimiter,
+} from './impedance-table-csv.ts';
+export {
+  readTouchstoneTwoPort,
+  impedanceFromThru,
+  measuredPartFromThru,
+  impedanceToS21SeriesThru,
+  impedanceToS21ShuntThru,
+  s21ToImpedanceSeriesThru,
+  s21ToImpedanceShuntThru,
+  thruFixtureSParameters,
+  writeTouchstoneTwoPort,
+  THRU_FIXTURES,
+  TOUCHSTONE_DEFAULTS,
+  type ThruFixture,
+  type ThruImpedance,
+  type TouchstoneFormat,
+  type TouchstoneOptions,
+  type TouchstoneTwoPort,
+  type TwoPortRecord,
+} from './touchstone.ts';
+export type { Complex } from './complex.ts';
+export {
+  sweepToCsv,
+  sweepToJson,
+  exportColumns,
+  pointOriginName,
+  pointFlagNames,
+  EXPORT_COLUMN_SETS,
+  POINT_COLUMNS,
+  SWEEP_JSON_FORMAT,
+  SWEEP_JSON_VERSION,
+  type ExportColumn,
+  type ExportColumnSet,
+  type SweepJson,
+} from './sweep-export.ts';
+export { parseJsonText, locateJsonSyntaxError, type JsonSyntaxError, type JsonTextResult } from './json-text.ts';
