@@ -1,4 +1,4 @@
-import fc from 'fast-check';
+import type fc from 'fast-check';
 
 /**
  * Property tests are seeded: the same seed replays the same cases. A failure prints the seed and
