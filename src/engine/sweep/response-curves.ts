@@ -1,5 +1,5 @@
 import type { NetworkResponse } from '../kernel/network-response.ts';
-import { magnitudeToDb, powerRatioToDb } from '../point-flags.ts';
+import { powerRatioToDb } from '../point-flags.ts';
 
 /** Mode quantities, as stored by the kernel (see NetworkResponse). */
 export type ModeQuantity = 'transferCm' | 'transferDm' | 'conversionCmToDm' | 'conversionDmToCm' | 'bareTransferCm' | 'bareTransferDm';
@@ -51,7 +51,7 @@ export function refinedCurveDb(response: NetworkResponse, curve: RefinedCurve, i
     case 'transferCm':
     case 'transferDm': {
       const column = modeColumn(response, curve);
-      return magnitudeToDb(Math.hypot(column.re[i]!, column.im[i]!));
+      return powerRatioToDb(column.re[i]! * column.re[i]! + column.im[i]! * column.im[i]!);
     }
   }
 }

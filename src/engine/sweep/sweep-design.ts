@@ -4,7 +4,7 @@ import { baseGrid, logSpace, mergeIntoGrid, PointOrigin, type TaggedGrid } from 
 import { createWorkspace, evaluateNetwork, type Workspace } from '../kernel/evaluate-network.ts';
 import { allocateResponse, type NetworkResponse, responseHead } from '../kernel/network-response.ts';
 import { CISPR17_SYSTEMS, compileNetwork, type Network, type NetworkElement } from '../network.ts';
-import { magnitudeToDb, PointFlag, powerRatioToDb } from '../point-flags.ts';
+import { PointFlag, powerRatioToDb } from '../point-flags.ts';
 import { findExtremumCandidates, MAX_REFINED_EXTREMA, type RefinedExtremum, refineExtrema } from './refine-extrema.ts';
 import { modeColumn, type ModeQuantity } from './response-curves.ts';
 import { findSelfResonances, type ImpedanceFunction } from './self-resonance.ts';
@@ -46,15 +46,20 @@ export function sweepDesign(design: Design, options: SweepOptions = {}): SweepRe
   const resonanceHz = selfResonances.flatMap((element) => element.views.flatMap((view) => view.resonances.map((r) => r.frequencyHz)));
   grid = mergeIntoGrid(grid, resonanceHz, PointOrigin.ElementResonance);
 
+  // One workspace for every pass: the first pass, the refinement batches and the final pass
+  // (which may hold up to MAX_REFINED_EXTREMA more points than the first).
+  const refine = options.refine ?? true;
+  const capacity = grid.frequencyHz.length + (refine ? 2 * MAX_REFINED_EXTREMA : 0);
+  const workspace = createWorkspace(network, capacity);
+  const response = allocateResponse(capacity, network.resistiveSystems.length);
+  const sweepInto = (frequencyHz: Float64Array): NetworkResponse => {
+    response.flags.fill(0, 0, frequencyHz.length);
+    evaluateNetwork(network, frequencyHz, workspace, response);
+    return responseHead(response, frequencyHz.length);
+  };
+
   let refined: RefinedExtremum[] = [];
-  if (options.refine ?? true) {
-    const workspace = createWorkspace(network, Math.max(grid.frequencyHz.length, 2 * MAX_REFINED_EXTREMA));
-    const response = allocateResponse(workspace.capacity, network.resistiveSystems.length);
-    const sweepInto = (frequencyHz: Float64Array): NetworkResponse => {
-      response.flags.fill(0, 0, frequencyHz.length);
-      evaluateNetwork(network, frequencyHz, workspace, response);
-      return responseHead(response, frequencyHz.length);
-    };
+  if (refine) {
     const onGrid = sweepInto(grid.frequencyHz);
     const { candidates, capped } = findExtremumCandidates(onGrid, grid.frequencyHz.length);
     if (capped) {
@@ -72,11 +77,8 @@ export function sweepDesign(design: Design, options: SweepOptions = {}): SweepRe
     );
   }
 
-  const finalWorkspace = createWorkspace(network, grid.frequencyHz.length);
-  const finalResponse = allocateResponse(grid.frequencyHz.length, network.resistiveSystems.length);
-  evaluateNetwork(network, grid.frequencyHz, finalWorkspace, finalResponse);
-  const result = assemble(design, network, grid, finalResponse, finalWorkspace, selfResonances, refined, warnings);
-  return result;
+  const finalResponse = sweepInto(grid.frequencyHz);
+  return assemble(design, network, grid, finalResponse, workspace, selfResonances, refined, warnings);
 }
 
 interface ElementResonances {
@@ -186,7 +188,7 @@ function assemble(
   powerRatiosToDb(columns.insertionLossLowHighDm, response.resistiveDmLoss[1]!, n);
   powerRatiosToDb(columns.insertionLossHighLowCm, response.resistiveCmLoss[2]!, n);
   powerRatiosToDb(columns.insertionLossHighLowDm, response.resistiveDmLoss[2]!, n);
-  const magnitudeDb = (c: ComplexColumns, i: number): number => magnitudeToDb(Math.hypot(c.re[i]!, c.im[i]!));
+  const magnitudeDb = (c: ComplexColumns, i: number): number => powerRatioToDb(c.re[i]! * c.re[i]! + c.im[i]! * c.im[i]!);
   for (let i = 0; i < n; i += 1) {
     const cm = magnitudeDb(transfers.transferCm, i);
     const dm = magnitudeDb(transfers.transferDm, i);
@@ -200,9 +202,9 @@ function assemble(
     columns.line2FromCm[i] = magnitudeDb(transfers.line2FromCm, i);
     columns.line1FromDm[i] = magnitudeDb(transfers.line1FromDm, i);
     columns.line2FromDm[i] = magnitudeDb(transfers.line2FromDm, i);
-    columns.inputImpedanceCmOhm[i] = Math.hypot(transfers.inputImpedanceCm.re[i]!, transfers.inputImpedanceCm.im[i]!);
+    columns.inputImpedanceCmOhm[i] = magnitude(transfers.inputImpedanceCm, i);
     columns.inputImpedanceCmDeg[i] = degrees(transfers.inputImpedanceCm, i);
-    columns.inputImpedanceDmOhm[i] = Math.hypot(transfers.inputImpedanceDm.re[i]!, transfers.inputImpedanceDm.im[i]!);
+    columns.inputImpedanceDmOhm[i] = magnitude(transfers.inputImpedanceDm, i);
     columns.inputImpedanceDmDeg[i] = degrees(transfers.inputImpedanceDm, i);
   }
 
@@ -213,7 +215,7 @@ function assemble(
       const magnitudeOhm = arena.take();
       const phaseDeg = arena.take();
       for (let i = 0; i < n; i += 1) {
-        magnitudeOhm[i] = factor * Math.hypot(source.re[i]!, source.im[i]!);
+        magnitudeOhm[i] = factor * magnitude(source, i);
         phaseDeg[i] = degrees(source, i);
       }
       return { name, magnitudeOhm, phaseDeg, selfResonances: found.find((v) => v.name === name)?.resonances ?? [] };
@@ -254,6 +256,11 @@ function assemble(
 
 function powerRatiosToDb(target: Float64Array, ratios: Float64Array, n: number): void {
   for (let i = 0; i < n; i += 1) target[i] = powerRatioToDb(ratios[i]!);
+}
+
+/** |c[i]|; Math.hypot is several times slower and its overflow care is not needed below 1e150. */
+function magnitude(c: ComplexColumns, i: number): number {
+  return Math.sqrt(c.re[i]! * c.re[i]! + c.im[i]! * c.im[i]!);
 }
 
 function degrees(c: ComplexColumns, i: number): number {
