@@ -13,12 +13,15 @@ export const PointFlag = {
 export type PointFlag = (typeof PointFlag)[keyof typeof PointFlag];
 
 /**
- * Impedances are limited to ±IMPEDANCE_LIMIT_OHM and admittances to ±ADMITTANCE_LIMIT_S.
- * 1e15 Ω is far beyond any real part (a 1 fF stray at 10 kHz is 1.6e10 Ω), so only exact
- * lossless resonances ever reach it.
+ * Impedances are limited to IMPEDANCE_LIMIT_OHM and admittances to ADMITTANCE_LIMIT_S (1 nΩ).
+ * 1 GΩ is beyond any real part in the band (a 0.1 pF stray at 9 kHz is 0.18 GΩ) and 1 nΩ below
+ * any real ESR, so only an ideal part at (or within 10⁻⁸ of) its resonance, or a 0 Ω part placed
+ * as a shunt, reaches them. The limits are also what keeps such a point computable: the cascade
+ * carries the other mode beside a 10⁹ entry with about 10⁻⁷ relative rounding, where a 10¹⁵ entry
+ * would swamp it (docs/engine-math.md §6).
  */
-export const IMPEDANCE_LIMIT_OHM = 1e15;
-export const ADMITTANCE_LIMIT_S = 1e15;
+export const IMPEDANCE_LIMIT_OHM = 1e9;
+export const ADMITTANCE_LIMIT_S = 1e9;
 
 /** Levels below this magnitude print as DB_FLOOR (−400 dB) rather than −Infinity. */
 export const MAGNITUDE_FLOOR = 1e-20;

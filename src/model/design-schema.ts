@@ -19,7 +19,7 @@ export const permeabilitySchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('constant') }),
   z.strictObject({
     kind: z.literal('first-order-relaxation'),
-    /** µ(f) = µi / (1 + j f/fr): inductance halves in magnitude and loss peaks at fr. */
+    /** µ(f) = µi / (1 + j f/fr): at fr the real part has halved (|µ| is down by √2) and the loss part peaks. */
     relaxationFrequencyHz: quantity('Hz'),
   }),
 ]);
@@ -244,6 +244,7 @@ export const frequencyPlanSchema = z
         code: 'custom',
         path: ['pointsPerDecade'],
         message: `the plan asks for about ${Math.round(points)} points; at most ${MAX_SWEEP_POINTS} are allowed`,
+        params: { code: 'out-of-range' },
       });
     }
   });

@@ -3,15 +3,15 @@ import type { Network, NetworkElement } from '../network.ts';
 import { ADMITTANCE_LIMIT_S, PointFlag } from '../point-flags.ts';
 import {
   allocateChain,
-  appendCoupledSeries,
-  appendSeries,
+  appendSeriesInLine,
+  appendSeriesModal,
   appendShuntLineToLine,
   appendShuntToGround,
   type ChainBuffer,
   resetToIdentity,
 } from './chain-ops.ts';
 import { allocateResponse, type NetworkResponse, responseHead } from './network-response.ts';
-import { addCoupledSeries, addSeriesInLine, addShunt, type LineImpedance, startAtReceivers, writeInputImpedances } from './input-impedance.ts';
+import { addCoupledPair, addSeriesInLine, addShunt, type ModeImpedance, startAtReceivers, writeInputImpedances } from './input-impedance.ts';
 import { terminate, type TerminationImpedances } from './terminate.ts';
 
 /**
@@ -25,8 +25,8 @@ export interface Workspace {
   /** Per element: its impedance as evaluated (two-terminal: Z; coupled pair: even and odd). */
   readonly impedance: readonly ElementScratch[];
   readonly terminations: TerminationImpedances;
-  /** Line impedance looking towards the receivers, walked back element by element. */
-  readonly lookingIn: LineImpedance;
+  /** Mode impedance looking towards the receivers, walked back element by element. */
+  readonly lookingIn: ModeImpedance;
 }
 
 interface ElementScratch {
@@ -35,11 +35,12 @@ interface ElementScratch {
   /** Coupled pair only: odd (leakage path) impedance per winding. */
   readonly secondary: ComplexColumns;
   /**
-   * What the chain update multiplies by: z (series), y = 1/z (shunt), or, for a coupled pair,
-   * the self impedance (even + odd)/2 here and the mutual one (even − odd)/2 in `mutual`.
+   * What the mode-coordinate chain update multiplies by: z/4 (series in one line), y = 1/z
+   * (shunt to ground), 4y (line to line), or, for a coupled pair, even/2 here and odd/2 in
+   * `operandDifferential`.
    */
   readonly operand: ComplexColumns;
-  readonly mutual: ComplexColumns;
+  readonly operandDifferential: ComplexColumns;
 }
 
 const EMPTY = complexColumns(0);
@@ -54,7 +55,7 @@ export function createWorkspace(network: Network, capacity: number): Workspace {
         primary: complexColumns(capacity),
         secondary: coupled ? complexColumns(capacity) : EMPTY,
         operand: complexColumns(capacity),
-        mutual: coupled ? complexColumns(capacity) : EMPTY,
+        operandDifferential: coupled ? complexColumns(capacity) : EMPTY,
       };
     }),
     terminations: {
@@ -110,24 +111,24 @@ function inputImpedance(network: Network, workspace: Workspace, count: number, o
     const element = network.elements[e]!;
     const scratch = workspace.impedance[e]!;
     if (element.kind === 'coupled-pair') {
-      addCoupledSeries(state, scratch.operand, scratch.mutual, count);
+      addCoupledPair(state, scratch.primary, scratch.secondary, count);
       continue;
     }
     switch (element.placement) {
       case 'series-line1':
-        addSeriesInLine(state, scratch.operand, 0, count);
+        addSeriesInLine(state, scratch.primary, 1, count);
         break;
       case 'series-line2':
-        addSeriesInLine(state, scratch.operand, 1, count);
+        addSeriesInLine(state, scratch.primary, -1, count);
         break;
       case 'line1-to-ground':
-        addShunt(state, scratch.operand, 1, 0, count, out.flags);
+        addShunt(state, scratch.operand, 1, 1, count, out.flags);
         break;
       case 'line2-to-ground':
-        addShunt(state, scratch.operand, 0, 1, count, out.flags);
+        addShunt(state, scratch.operand, 1, -1, count, out.flags);
         break;
       case 'line-to-line':
-        addShunt(state, scratch.operand, 1, -1, count, out.flags);
+        addShunt(state, scratch.operand, 0, 1, count, out.flags);
         break;
     }
   }
@@ -139,38 +140,49 @@ function prepareOperand(element: NetworkElement, f: Float64Array, scratch: Eleme
   const count = f.length;
   const { operand } = scratch;
   if (element.kind === 'coupled-pair') {
-    const { primary: even, secondary: odd, mutual } = scratch;
+    const { primary: even, secondary: odd, operandDifferential } = scratch;
     element.eigenImpedances(f, even, odd, flags);
-    for (let i = 0; i < count; i += 1) {
-      operand.re[i] = 0.5 * (even.re[i]! + odd.re[i]!);
-      operand.im[i] = 0.5 * (even.im[i]! + odd.im[i]!);
-      mutual.re[i] = 0.5 * (even.re[i]! - odd.re[i]!);
-      mutual.im[i] = 0.5 * (even.im[i]! - odd.im[i]!);
-    }
+    scaleInto(even, operand, 0.5, count);
+    scaleInto(odd, operandDifferential, 0.5, count);
     return;
   }
   const z = scratch.primary;
   element.impedance.evaluate(f, z, flags);
-  if (element.placement === 'series-line1' || element.placement === 'series-line2') {
-    operand.re.set(z.re.subarray(0, count));
-    operand.im.set(z.im.subarray(0, count));
-  } else {
-    invertInto(z, operand, count, flags);
+  switch (element.placement) {
+    case 'series-line1':
+    case 'series-line2':
+      scaleInto(z, operand, 0.25, count);
+      return;
+    case 'line1-to-ground':
+    case 'line2-to-ground':
+      invertInto(z, operand, count, flags, 1);
+      return;
+    case 'line-to-line':
+      invertInto(z, operand, count, flags, 4);
+      return;
+  }
+}
+
+function scaleInto(source: ComplexColumns, target: ComplexColumns, factor: number, count: number): void {
+  for (let i = 0; i < count; i += 1) {
+    target.re[i] = factor * source.re[i]!;
+    target.im[i] = factor * source.im[i]!;
   }
 }
 
 function appendElement(element: NetworkElement, scratch: ElementScratch, chain: ChainBuffer, count: number, offset: number): void {
   const { operand } = scratch;
   if (element.kind === 'coupled-pair') {
-    appendCoupledSeries(chain, count, operand.re, operand.im, scratch.mutual.re, scratch.mutual.im, offset);
+    const differential = scratch.operandDifferential;
+    appendSeriesModal(chain, count, operand.re, operand.im, differential.re, differential.im, offset);
     return;
   }
   switch (element.placement) {
     case 'series-line1':
-      appendSeries(chain, count, 0, operand.re, operand.im, offset);
+      appendSeriesInLine(chain, count, 0, operand.re, operand.im, offset);
       return;
     case 'series-line2':
-      appendSeries(chain, count, 1, operand.re, operand.im, offset);
+      appendSeriesInLine(chain, count, 1, operand.re, operand.im, offset);
       return;
     case 'line1-to-ground':
       appendShuntToGround(chain, count, 0, operand.re, operand.im, offset);
@@ -186,21 +198,21 @@ function appendElement(element: NetworkElement, scratch: ElementScratch, chain: 
 
 const ADMITTANCE_LIMIT_SQUARED = ADMITTANCE_LIMIT_S * ADMITTANCE_LIMIT_S;
 
-/** y = 1/z, limited to ADMITTANCE_LIMIT_S where z is (or is nearly) a short. */
-function invertInto(z: ComplexColumns, y: ComplexColumns, count: number, flags: Uint8Array): void {
+/** y = factor/z, with 1/z limited to ADMITTANCE_LIMIT_S where z is (or is nearly) a short. */
+function invertInto(z: ComplexColumns, y: ComplexColumns, count: number, flags: Uint8Array, factor: number): void {
   for (let i = 0; i < count; i += 1) {
     const zr = z.re[i]!;
     const zi = z.im[i]!;
     const z2 = zr * zr + zi * zi;
     if (z2 * ADMITTANCE_LIMIT_SQUARED >= 1) {
-      y.re[i] = zr / z2;
-      y.im[i] = -zi / z2;
+      y.re[i] = (factor * zr) / z2;
+      y.im[i] = (-factor * zi) / z2;
     } else {
       flags[i]! |= PointFlag.IdealResonanceLimited;
       const magnitude = Math.sqrt(z2);
       // A perfect short keeps no direction; a real one would be resistive.
-      y.re[i] = magnitude > 0 ? (zr / magnitude) * ADMITTANCE_LIMIT_S : ADMITTANCE_LIMIT_S;
-      y.im[i] = magnitude > 0 ? (-zi / magnitude) * ADMITTANCE_LIMIT_S : 0;
+      y.re[i] = factor * (magnitude > 0 ? (zr / magnitude) * ADMITTANCE_LIMIT_S : ADMITTANCE_LIMIT_S);
+      y.im[i] = factor * (magnitude > 0 ? (-zi / magnitude) * ADMITTANCE_LIMIT_S : 0);
     }
   }
 }

@@ -3,64 +3,75 @@ import type { ComplexColumns } from '../complex-columns.ts';
 
 /**
  * The impedance looking into the filter from the source side with the receivers connected,
- * found by walking from the receivers back to the source (docs/engine-math.md §5). It is not
- * taken from the chain matrix as (A Z_L + B)(C Z_L + D)⁻¹: that ratio divides nearly singular
- * 2×2 determinants when one path's impedance dwarfs the others, and was measured to lose about
- * six digits on such designs, where this recursion loses none.
+ * found by walking from the receivers back to the source (docs/engine-math.md §5), not taken from
+ * the chain matrix as (A Z_L + B)(C Z_L + D)⁻¹, which divides nearly singular determinants.
  *
- * The state is the symmetric 2×2 line impedance Z = [[z00, z01], [z01, z11]] per point
- * (V = Z·I). A series element adds to it; a shunt element is a rank-one admittance y·v vᵀ
- * (v = [1, 0], [0, 1] or [1, −1]), so Sherman–Morrison updates Z without inverting it:
- *   Z ← Z − (Z v)(Z v)ᵀ · y / (1 + y·vᵀ Z v).
+ * The state is the symmetric 2×2 MODE impedance Z = [[z00, z01], [z01, z11]] per point, with
+ * v = [(V1 + V2)/2, (V1 − V2)/2] = Z·[I1 + I2, I1 − I2]. In modes a choke adds diag(even/2, odd/2)
+ * and a part between the lines touches z11 only, so a choke's common-mode impedance and an X
+ * capacitor at resonance never have to cancel against each other (in line coordinates the
+ * joined-lines impedance came out as a difference of two squares of the choke's impedance).
+ * A series element adds to Z; a shunt element is a rank-one admittance y·v vᵀ, so
+ * Sherman–Morrison updates Z without inverting it: Z ← Z − (Z v)(Z v)ᵀ · y / (1 + y·vᵀ Z v).
  */
-export interface LineImpedance {
+export interface ModeImpedance {
   readonly z00: ComplexColumns;
   readonly z01: ComplexColumns;
   readonly z11: ComplexColumns;
 }
 
-/** Z = diag(receiver 1, receiver 2). */
-export function startAtReceivers(state: LineImpedance, line1: ComplexColumns, line2: ComplexColumns, count: number): void {
-  state.z00.re.set(line1.re.subarray(0, count));
-  state.z00.im.set(line1.im.subarray(0, count));
-  state.z11.re.set(line2.re.subarray(0, count));
-  state.z11.im.set(line2.im.subarray(0, count));
-  state.z01.re.fill(0, 0, count);
-  state.z01.im.fill(0, 0, count);
-}
-
-/** Series z in one line: Z[line][line] += z. */
-export function addSeriesInLine(state: LineImpedance, z: ComplexColumns, line: 0 | 1, count: number): void {
-  const target = line === 0 ? state.z00 : state.z11;
+/** Z = receivers in modes: ¼·[[z1 + z2, z1 − z2], [z1 − z2, z1 + z2]]. */
+export function startAtReceivers(state: ModeImpedance, line1: ComplexColumns, line2: ComplexColumns, count: number): void {
+  const { z00, z01, z11 } = state;
   for (let i = 0; i < count; i += 1) {
-    target.re[i]! += z.re[i]!;
-    target.im[i]! += z.im[i]!;
+    const pr = 0.25 * (line1.re[i]! + line2.re[i]!);
+    const pi = 0.25 * (line1.im[i]! + line2.im[i]!);
+    z00.re[i] = pr;
+    z00.im[i] = pi;
+    z11.re[i] = pr;
+    z11.im[i] = pi;
+    z01.re[i] = 0.25 * (line1.re[i]! - line2.re[i]!);
+    z01.im[i] = 0.25 * (line1.im[i]! - line2.im[i]!);
   }
 }
 
-/** A symmetric coupled series pair: Z += [[zs, zm], [zm, zs]]. */
-export function addCoupledSeries(state: LineImpedance, self: ComplexColumns, mutual: ComplexColumns, count: number): void {
+/** A choke from its eigen-impedances per winding: Z += diag(even/2, odd/2). */
+export function addCoupledPair(state: ModeImpedance, even: ComplexColumns, odd: ComplexColumns, count: number): void {
+  const { z00, z11 } = state;
+  for (let i = 0; i < count; i += 1) {
+    z00.re[i]! += 0.5 * even.re[i]!;
+    z00.im[i]! += 0.5 * even.im[i]!;
+    z11.re[i]! += 0.5 * odd.re[i]!;
+    z11.im[i]! += 0.5 * odd.im[i]!;
+  }
+}
+
+/** Series z in line 1 (sign +1) or line 2 (sign −1): Z += (z/4)·[[1, ±1], [±1, 1]]. */
+export function addSeriesInLine(state: ModeImpedance, z: ComplexColumns, sign: 1 | -1, count: number): void {
   const { z00, z01, z11 } = state;
   for (let i = 0; i < count; i += 1) {
-    z00.re[i]! += self.re[i]!;
-    z00.im[i]! += self.im[i]!;
-    z11.re[i]! += self.re[i]!;
-    z11.im[i]! += self.im[i]!;
-    z01.re[i]! += mutual.re[i]!;
-    z01.im[i]! += mutual.im[i]!;
+    const qr = 0.25 * z.re[i]!;
+    const qi = 0.25 * z.im[i]!;
+    z00.re[i]! += qr;
+    z00.im[i]! += qi;
+    z11.re[i]! += qr;
+    z11.im[i]! += qi;
+    z01.re[i]! += sign * qr;
+    z01.im[i]! += sign * qi;
   }
 }
 
 /**
- * A shunt admittance y·v vᵀ with v = [v0, v1]: [1, 0] line 1 to ground, [0, 1] line 2 to ground,
- * [1, −1] line to line. Where 1 + y·vᵀZv = 0 (a lossless parallel resonance) the point is
- * flagged and Z left as it was.
+ * A shunt admittance y·v vᵀ with v = [v0, v1]: [1, 1] line 1 to ground, [1, −1] line 2 to
+ * ground (admittance y), [0, 1] line to line (admittance 4y, the mode form of y across the
+ * lines). Where 1 + y·vᵀZv = 0 (a lossless parallel resonance) the point is flagged and Z left as
+ * it was.
  */
 export function addShunt(
-  state: LineImpedance,
+  state: ModeImpedance,
   admittance: ComplexColumns,
-  v0: 0 | 1,
-  v1: 0 | 1 | -1,
+  v0: number,
+  v1: number,
   count: number,
   flags: Uint8Array,
 ): void {
@@ -97,11 +108,11 @@ export function addShunt(
 }
 
 /**
- * From the line impedance at the filter input: line to line (I1 = −I2) Z_dm = z00 − 2·z01 + z11;
- * lines joined (V1 = V2, I = I1 + I2) Z_cm = det Z / Z_dm.
+ * From the mode impedance at the filter input: line to line (I1 = −I2 = I, so i = [0, 2I] and
+ * V1 − V2 = 2·v_d) Z_dm = 4·z11; lines joined (v_d = 0) Z_cm = z00 − z01²/z11.
  */
 export function writeInputImpedances(
-  state: LineImpedance,
+  state: ModeImpedance,
   commonMode: ComplexColumns,
   differentialMode: ComplexColumns,
   count: number,
@@ -109,23 +120,25 @@ export function writeInputImpedances(
 ): void {
   const { z00, z01, z11 } = state;
   for (let i = 0; i < count; i += 1) {
-    const a00r = z00.re[i]!, a00i = z00.im[i]!;
-    const a01r = z01.re[i]!, a01i = z01.im[i]!;
-    const a11r = z11.re[i]!, a11i = z11.im[i]!;
-    const dmr = a00r - 2 * a01r + a11r;
-    const dmi = a00i - 2 * a01i + a11i;
-    differentialMode.re[i] = dmr;
-    differentialMode.im[i] = dmi;
-    const detr = a00r * a11r - a00i * a11i - (a01r * a01r - a01i * a01i);
-    const deti = a00r * a11i + a00i * a11r - 2 * a01r * a01i;
-    const d2 = dmr * dmr + dmi * dmi;
-    if (!(d2 > 0)) {
-      commonMode.re[i] = 0;
-      commonMode.im[i] = 0;
+    const br = z11.re[i]!, bi = z11.im[i]!;
+    differentialMode.re[i] = 4 * br;
+    differentialMode.im[i] = 4 * bi;
+    const cr = z01.re[i]!, ci = z01.im[i]!;
+    if (cr === 0 && ci === 0) {
+      // Matched: the modes are apart, and joined lines see the common-mode impedance as it is.
+      commonMode.re[i] = z00.re[i]!;
+      commonMode.im[i] = z00.im[i]!;
+      continue;
+    }
+    const b2 = br * br + bi * bi;
+    if (!(b2 > 0)) {
+      commonMode.re[i] = z00.re[i]!;
+      commonMode.im[i] = z00.im[i]!;
       flags[i]! |= PointFlag.NotFinite;
       continue;
     }
-    commonMode.re[i] = (detr * dmr + deti * dmi) / d2;
-    commonMode.im[i] = (deti * dmr - detr * dmi) / d2;
+    const c2r = cr * cr - ci * ci, c2i = 2 * cr * ci;
+    commonMode.re[i] = z00.re[i]! - (c2r * br + c2i * bi) / b2;
+    commonMode.im[i] = z00.im[i]! - (c2i * br - c2r * bi) / b2;
   }
 }

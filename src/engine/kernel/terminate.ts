@@ -14,16 +14,14 @@ export interface TerminationImpedances {
   readonly receiverLine2: ComplexColumns;
 }
 
-/** Below this ratio the two lines' loop impedance counts as zero when the lines are joined. */
-const JOINED_LOOP_EPSILON_SQUARED = 1e-28;
-
 /**
- * Close the cascade with its terminations and write every per-frequency output. Each
- * termination reduces to 2×2 algebra (docs/engine-math.md §4), so no general 4×4 solve runs:
+ * Close the cascade (mode coordinates, see chain-ops.ts) with its terminations and write every
+ * per-frequency output. Each termination reduces to 2×2 algebra (docs/engine-math.md §4):
  *
- * - in circuit: source Z_S = (Z_dm/2)·I + Z_cm·u uᵀ (u = [1, 1]), receivers Z_L = diag(z1, z2);
- *   E = N·I_out with N = (A Z_L + B) + Z_S (C Z_L + D), V_out = Z_L N⁻¹ E, for the common-mode
- *   EMF E = [1, 1] and the differential-mode EMF E = [1, −1];
+ * - in circuit: in modes the source is diagonal, Z_S = diag(Z_cm + Z_dm/4, Z_dm/4), and the
+ *   receivers are Z_L = ¼·[[z1 + z2, z1 − z2], [z1 − z2, z1 + z2]]; the source EMFs are
+ *   e = [1, 0] (common mode) and [0, 1] (differential mode). N = (A Z_L + B) + Z_S (C Z_L + D),
+ *   i_out = N⁻¹ e, v_out = Z_L i_out;
  * - resistive common mode: both lines joined at each end, r_s and r_l to ground;
  * - resistive differential mode: r_s and r_l line to line, balanced about ground.
  *
@@ -69,111 +67,89 @@ export function terminate(
     const t32r = re[14 * stride + k]!, t32i = im[14 * stride + k]!;
     const t33r = re[15 * stride + k]!, t33i = im[15 * stride + k]!;
 
-    const zl1r = l1Re[i]!, zl1i = l1Im[i]!;
-    const zl2r = l2Re[i]!, zl2i = l2Im[i]!;
-    const br = zcRe[i]!, bi = zcIm[i]!;
+    // Receivers in modes: lp on the diagonal, lm off it (zero for matched receivers).
+    const lpr = 0.25 * (l1Re[i]! + l2Re[i]!), lpi = 0.25 * (l1Im[i]! + l2Im[i]!);
+    const lmr = 0.25 * (l1Re[i]! - l2Re[i]!), lmi = 0.25 * (l1Im[i]! - l2Im[i]!);
+    // Source in modes: sc for common mode, sd for differential mode.
+    const sdr = 0.25 * zdRe[i]!, sdi = 0.25 * zdIm[i]!;
+    const scr = zcRe[i]! + sdr, sci = zcIm[i]! + sdi;
 
-    // X = A Z_L + B, W = C Z_L + D (Z_L diagonal: column c scales by the line-c receiver).
-    const x00r = t00r * zl1r - t00i * zl1i + t02r, x00i = t00r * zl1i + t00i * zl1r + t02i;
-    const x01r = t01r * zl2r - t01i * zl2i + t03r, x01i = t01r * zl2i + t01i * zl2r + t03i;
-    const x10r = t10r * zl1r - t10i * zl1i + t12r, x10i = t10r * zl1i + t10i * zl1r + t12i;
-    const x11r = t11r * zl2r - t11i * zl2i + t13r, x11i = t11r * zl2i + t11i * zl2r + t13i;
-    const w00r = t20r * zl1r - t20i * zl1i + t22r, w00i = t20r * zl1i + t20i * zl1r + t22i;
-    const w01r = t21r * zl2r - t21i * zl2i + t23r, w01i = t21r * zl2i + t21i * zl2r + t23i;
-    const w10r = t30r * zl1r - t30i * zl1i + t32r, w10i = t30r * zl1i + t30i * zl1r + t32i;
-    const w11r = t31r * zl2r - t31i * zl2i + t33r, w11i = t31r * zl2i + t31i * zl2r + t33i;
+    // X = A Z_L + B, W = C Z_L + D.
+    const x00r = t00r * lpr - t00i * lpi + (t01r * lmr - t01i * lmi) + t02r;
+    const x00i = t00r * lpi + t00i * lpr + (t01r * lmi + t01i * lmr) + t02i;
+    const x01r = t00r * lmr - t00i * lmi + (t01r * lpr - t01i * lpi) + t03r;
+    const x01i = t00r * lmi + t00i * lmr + (t01r * lpi + t01i * lpr) + t03i;
+    const x10r = t10r * lpr - t10i * lpi + (t11r * lmr - t11i * lmi) + t12r;
+    const x10i = t10r * lpi + t10i * lpr + (t11r * lmi + t11i * lmr) + t12i;
+    const x11r = t10r * lmr - t10i * lmi + (t11r * lpr - t11i * lpi) + t13r;
+    const x11i = t10r * lmi + t10i * lmr + (t11r * lpi + t11i * lpr) + t13i;
+    const w00r = t20r * lpr - t20i * lpi + (t21r * lmr - t21i * lmi) + t22r;
+    const w00i = t20r * lpi + t20i * lpr + (t21r * lmi + t21i * lmr) + t22i;
+    const w01r = t20r * lmr - t20i * lmi + (t21r * lpr - t21i * lpi) + t23r;
+    const w01i = t20r * lmi + t20i * lmr + (t21r * lpi + t21i * lpr) + t23i;
+    const w10r = t30r * lpr - t30i * lpi + (t31r * lmr - t31i * lmi) + t32r;
+    const w10i = t30r * lpi + t30i * lpr + (t31r * lmi + t31i * lmr) + t32i;
+    const w11r = t30r * lmr - t30i * lmi + (t31r * lpr - t31i * lpi) + t33r;
+    const w11i = t30r * lmi + t30i * lmr + (t31r * lpi + t31i * lpr) + t33i;
 
-    // N = X + Z_S W with Z_S = (Z_dm/2)·I + Z_cm·u uᵀ, u = [1, 1]: N = K + Z_cm·u wᵀ, where
-    // K = X + (Z_dm/2)·W and wᵀ = uᵀW. A large Z_cm (a few pF to chassis) makes Z_S nearly rank
-    // one, so det N is formed by the determinant lemma, det N = det K + Z_cm·wᵀ adj(K) u, and
-    // the common-mode solution adj(N)·u = adj(K)·u does not contain Z_cm at all: nothing cancels.
-    const hr = 0.5 * zdRe[i]!, hi = 0.5 * zdIm[i]!;
-    const k00r = x00r + hr * w00r - hi * w00i, k00i = x00i + hr * w00i + hi * w00r;
-    const k01r = x01r + hr * w01r - hi * w01i, k01i = x01i + hr * w01i + hi * w01r;
-    const k10r = x10r + hr * w10r - hi * w10i, k10i = x10i + hr * w10i + hi * w10r;
-    const k11r = x11r + hr * w11r - hi * w11i, k11i = x11i + hr * w11i + hi * w11r;
-    const u0r = w00r + w10r, u0i = w00i + w10i;
-    const u1r = w01r + w11r, u1i = w01i + w11i;
-    // adj(K)·u = [K11 − K01, K00 − K10]
-    const c1r = k11r - k01r, c1i = k11i - k01i;
-    const c2r = k00r - k10r, c2i = k00i - k10i;
-    const lemmar = u0r * c1r - u0i * c1i + (u1r * c2r - u1i * c2i);
-    const lemmai = u0r * c1i + u0i * c1r + (u1r * c2i + u1i * c2r);
-    const detr = k00r * k11r - k00i * k11i - (k01r * k10r - k01i * k10i) + (br * lemmar - bi * lemmai);
-    const deti = k00r * k11i + k00i * k11r - (k01r * k10i + k01i * k10r) + (br * lemmai + bi * lemmar);
-
+    // N = X + Z_S W with Z_S diagonal: row 0 takes sc, row 1 takes sd. (A large Z_cm, a few pF
+    // to chassis, multiplies row 0 only: in modes nothing cancels against it.)
+    const n00r = x00r + (scr * w00r - sci * w00i), n00i = x00i + (scr * w00i + sci * w00r);
+    const n01r = x01r + (scr * w01r - sci * w01i), n01i = x01i + (scr * w01i + sci * w01r);
+    const n10r = x10r + (sdr * w10r - sdi * w10i), n10i = x10i + (sdr * w10i + sdi * w10r);
+    const n11r = x11r + (sdr * w11r - sdi * w11i), n11i = x11i + (sdr * w11i + sdi * w11r);
+    const detr = n00r * n11r - n00i * n11i - (n01r * n10r - n01i * n10i);
+    const deti = n00r * n11i + n00i * n11r - (n01r * n10i + n01i * n10r);
     const det2 = detr * detr + deti * deti;
     const invr = detr / det2, invi = -deti / det2;
-    // I_out = adj(N)·E / det N and V = Z_L·I_out.
-    // E_cm = u: adj(N)·u = adj(K)·u.
+
+    // Common-mode EMF: i = [N11, −N10]/det; differential-mode EMF: i = [−N01, N00]/det.
+    // v = Z_L i: v_c = lp·i_c + lm·i_d, v_d = lm·i_c + lp·i_d; V1 = v_c + v_d, V2 = v_c − v_d.
     {
-      const pr = zl1r * c1r - zl1i * c1i;
-      const pi = zl1r * c1i + zl1i * c1r;
-      line1FromCm.re[i] = pr * invr - pi * invi;
-      line1FromCm.im[i] = pr * invi + pi * invr;
+      const icr = n11r * invr - n11i * invi, ici = n11r * invi + n11i * invr;
+      const idr = -(n10r * invr - n10i * invi), idi = -(n10r * invi + n10i * invr);
+      const vcr = lpr * icr - lpi * ici + (lmr * idr - lmi * idi);
+      const vci = lpr * ici + lpi * icr + (lmr * idi + lmi * idr);
+      const vdr = lmr * icr - lmi * ici + (lpr * idr - lpi * idi);
+      const vdi = lmr * ici + lmi * icr + (lpr * idi + lpi * idr);
+      cmFromCm.re[i] = vcr;
+      cmFromCm.im[i] = vci;
+      dmFromCm.re[i] = vdr;
+      dmFromCm.im[i] = vdi;
+      line1FromCm.re[i] = vcr + vdr;
+      line1FromCm.im[i] = vci + vdi;
+      line2FromCm.re[i] = vcr - vdr;
+      line2FromCm.im[i] = vci - vdi;
     }
     {
-      const pr = zl2r * c2r - zl2i * c2i;
-      const pi = zl2r * c2i + zl2i * c2r;
-      line2FromCm.re[i] = pr * invr - pi * invi;
-      line2FromCm.im[i] = pr * invi + pi * invr;
-    }
-    // E_dm = [1, −1]: adj(N)·E = [K11 + K01 + 2·Z_cm·w1, −(K10 + K00 + 2·Z_cm·w0)].
-    {
-      const er = k11r + k01r + 2 * (br * u1r - bi * u1i);
-      const ei = k11i + k01i + 2 * (br * u1i + bi * u1r);
-      const pr = zl1r * er - zl1i * ei;
-      const pi = zl1r * ei + zl1i * er;
-      line1FromDm.re[i] = pr * invr - pi * invi;
-      line1FromDm.im[i] = pr * invi + pi * invr;
-    }
-    {
-      const er = -(k10r + k00r + 2 * (br * u0r - bi * u0i));
-      const ei = -(k10i + k00i + 2 * (br * u0i + bi * u0r));
-      const pr = zl2r * er - zl2i * ei;
-      const pi = zl2r * ei + zl2i * er;
-      line2FromDm.re[i] = pr * invr - pi * invi;
-      line2FromDm.im[i] = pr * invi + pi * invr;
+      const icr = -(n01r * invr - n01i * invi), ici = -(n01r * invi + n01i * invr);
+      const idr = n00r * invr - n00i * invi, idi = n00r * invi + n00i * invr;
+      const vcr = lpr * icr - lpi * ici + (lmr * idr - lmi * idi);
+      const vci = lpr * ici + lpi * icr + (lmr * idi + lmi * idr);
+      const vdr = lmr * icr - lmi * ici + (lpr * idr - lpi * idi);
+      const vdi = lmr * ici + lmi * icr + (lpr * idi + lpi * idr);
+      cmFromDm.re[i] = vcr;
+      cmFromDm.im[i] = vci;
+      dmFromDm.re[i] = vdr;
+      dmFromDm.im[i] = vdi;
+      line1FromDm.re[i] = vcr + vdr;
+      line1FromDm.im[i] = vci + vdi;
+      line2FromDm.re[i] = vcr - vdr;
+      line2FromDm.im[i] = vci - vdi;
     }
 
-    // Mode voltages from the line voltages: v_c = (V1 + V2)/2, v_d = (V1 − V2)/2.
-    cmFromCm.re[i] = 0.5 * (line1FromCm.re[i]! + line2FromCm.re[i]!);
-    cmFromCm.im[i] = 0.5 * (line1FromCm.im[i]! + line2FromCm.im[i]!);
-    dmFromCm.re[i] = 0.5 * (line1FromCm.re[i]! - line2FromCm.re[i]!);
-    dmFromCm.im[i] = 0.5 * (line1FromCm.im[i]! - line2FromCm.im[i]!);
-    cmFromDm.re[i] = 0.5 * (line1FromDm.re[i]! + line2FromDm.re[i]!);
-    cmFromDm.im[i] = 0.5 * (line1FromDm.im[i]! + line2FromDm.im[i]!);
-    dmFromDm.re[i] = 0.5 * (line1FromDm.re[i]! - line2FromDm.re[i]!);
-    dmFromDm.im[i] = 0.5 * (line1FromDm.im[i]! - line2FromDm.im[i]!);
+    // No filter: N₀ = Z_L + Z_S = [[lp + sc, lm], [lm, lp + sd]];
+    // T_CM = (lp·(lp + sd) − lm²)/det₀, T_DM = (lp·(lp + sc) − lm²)/det₀.
+    const a0r = lpr + scr, a0i = lpi + sci;
+    const d0r = lpr + sdr, d0i = lpi + sdi;
+    const lm2r = lmr * lmr - lmi * lmi, lm2i = 2 * lmr * lmi;
+    const e0r = a0r * d0r - a0i * d0i - lm2r, e0i = a0r * d0i + a0i * d0r - lm2i;
+    const e02 = e0r * e0r + e0i * e0i;
+    writeQuotient(bareCmFromCm, i, lpr * d0r - lpi * d0i - lm2r, lpr * d0i + lpi * d0r - lm2i, e0r, e0i);
+    writeQuotient(bareDmFromDm, i, lpr * a0r - lpi * a0i - lm2r, lpr * a0i + lpi * a0r - lm2i, e0r, e0i);
 
-    // No filter: X = Z_L, W = I, so K = diag(Z_L1 + Z_dm/2, Z_L2 + Z_dm/2) and w = u.
-    const q1r = zl1r + hr, q1i = zl1i + hi;
-    const q2r = zl2r + hr, q2i = zl2i + hi;
-    const d0r = q1r * q2r - q1i * q2i + (br * (q1r + q2r) - bi * (q1i + q2i));
-    const d0i = q1r * q2i + q1i * q2r + (br * (q1i + q2i) + bi * (q1r + q2r));
-    const d02 = d0r * d0r + d0i * d0i;
-    const inv0r = d0r / d02, inv0i = -d0i / d02;
-    {
-      // T_CM = (V1 + V2)/2 with V1 = z1·q2/det₀, V2 = z2·q1/det₀.
-      const nr = 0.5 * (zl1r * q2r - zl1i * q2i + (zl2r * q1r - zl2i * q1i));
-      const ni = 0.5 * (zl1r * q2i + zl1i * q2r + (zl2r * q1i + zl2i * q1r));
-      bareCmFromCm.re[i] = nr * inv0r - ni * inv0i;
-      bareCmFromCm.im[i] = nr * inv0i + ni * inv0r;
-    }
-    {
-      // T_DM = (V1 − V2)/2 with V1 = z1·(q2 + 2 Z_cm)/det₀, V2 = −z2·(q1 + 2 Z_cm)/det₀.
-      const e1r = q2r + 2 * br, e1i = q2i + 2 * bi;
-      const e2r = q1r + 2 * br, e2i = q1i + 2 * bi;
-      const nr = 0.5 * (zl1r * e1r - zl1i * e1i + (zl2r * e2r - zl2i * e2i));
-      const ni = 0.5 * (zl1r * e1i + zl1i * e1r + (zl2r * e2i + zl2i * e2r));
-      bareDmFromDm.re[i] = nr * inv0r - ni * inv0i;
-      bareDmFromDm.im[i] = nr * inv0i + ni * inv0r;
-    }
-
-    let flag = 0;
-    if (!(det2 > 0 && det2 < Infinity && d02 > 0)) flag |= PointFlag.NotFinite;
-    if (flag !== 0) {
-      flags[i]! |= flag;
+    if (!(det2 > 0 && det2 < Infinity && e02 > 0)) {
+      flags[i]! |= PointFlag.NotFinite;
       scrubPoint(out, i);
     }
   }
@@ -187,14 +163,14 @@ export function terminate(
  * Resistive systems (CISPR 17 style), one pass per system so the loop keeps few live values.
  * Insertion loss is written as the power ratio |V_without / V_with|², V_without = r_l/(r_s + r_l).
  *
- * Common mode, lines joined: V_out = [u, u], I_out = [x, y] with x + y = u/r_l; the tie
- * V1_in = V2_in fixes the split, α + p·x + q·y = 0 with α = (t00 + t01) − (t10 + t11),
- * p = t02 − t12, q = t03 − t13. With no impedance around the loop the joined lines form
- * (p = q, e.g. an ideal choke) the split changes no voltage and is taken as even. Then
- * E = (V1_in + r_s·(I1_in + I2_in))·u and V_without/V_with = den·r_l/(r_s + r_l) per unit u.
+ * Common mode, lines joined: at both ends v_d = 0; the load gives v_c,out = r_l·i_c,out, and the
+ * tie at the input, v_d,in = 0, fixes the split: i_d = −(A10·r_l + B10)/B11 per unit i_c. With no
+ * differential-mode impedance around the loop (B11 = 0, e.g. an ideal choke) the split changes no
+ * voltage and is taken as even (i_d = 0). Then E = (v_c,in + r_s·i_c,in)·i_c and
+ * V_without/V_with = den/(r_s + r_l).
  *
- * Differential mode, balanced: r_s/2 and r_l/2 per line, EMF ±½;
- * N = A·r_l/2 + B + (r_s/2)(C·r_l/2 + D), V_without/V_with = 4·det N/((r_s + r_l)·ΣN).
+ * Differential mode, balanced: e = [0, ½], N = A·r_l/4 + B + (r_s/4)(C·r_l/4 + D),
+ * V_out = V1 − V2 = r_l·N00/(4 det N), so V_without/V_with = 4·det N/((r_s + r_l)·N00).
  */
 function terminateResistive(
   chain: ChainBuffer,
@@ -207,10 +183,9 @@ function terminateResistive(
   offset: number,
 ): void {
   const { re, im, stride } = chain;
-  const g = 1 / rl;
-  const zs = 0.5 * rs;
-  const zl = 0.5 * rl;
   const sum2 = (rs + rl) * (rs + rl);
+  const ql = 0.25 * rl;
+  const qs = 0.25 * rs;
   for (let k = 0; k < count; k += 1) {
     const i = offset + k;
     const t00r = re[k]!, t00i = im[k]!;
@@ -230,39 +205,30 @@ function terminateResistive(
     const t32r = re[14 * stride + k]!, t32i = im[14 * stride + k]!;
     const t33r = re[15 * stride + k]!, t33i = im[15 * stride + k]!;
 
-    const sa1r = t00r + t01r, sa1i = t00i + t01i;
-    const alphar = sa1r - t10r - t11r, alphai = sa1i - t10i - t11i;
-    const pr = t02r - t12r, pi = t02i - t12i;
-    const qr = t03r - t13r, qi = t03i - t13i;
-    const pqr = pr - qr, pqi = pi - qi;
-    const pq2 = pqr * pqr + pqi * pqi;
-    let xr: number, xi: number;
-    if (pq2 <= JOINED_LOOP_EPSILON_SQUARED * (pr * pr + pi * pi + qr * qr + qi * qi)) {
-      xr = 0.5 * g;
-      xi = 0;
-    } else {
-      const numr = alphar + qr * g, numi = alphai + qi * g;
-      xr = -(numr * pqr + numi * pqi) / pq2;
-      xi = -(numi * pqr - numr * pqi) / pq2;
+    // Common mode, joined lines.
+    const numr = t10r * rl + t12r, numi = t10i * rl + t12i;
+    const b2 = t13r * t13r + t13i * t13i;
+    let idr = 0;
+    let idi = 0;
+    if (b2 > 0 && (numr !== 0 || numi !== 0)) {
+      idr = -(numr * t13r + numi * t13i) / b2;
+      idi = -(numi * t13r - numr * t13i) / b2;
     }
-    const yr = g - xr, yi = -xi;
-    const vr = sa1r + (t02r * xr - t02i * xi) + (t03r * yr - t03i * yi);
-    const vi = sa1i + (t02r * xi + t02i * xr) + (t03r * yi + t03i * yr);
-    const sxr = t22r + t32r, sxi = t22i + t32i;
-    const syr = t23r + t33r, syi = t23i + t33i;
-    const cr = t20r + t21r + t30r + t31r + (sxr * xr - sxi * xi) + (syr * yr - syi * yi);
-    const ci = t20i + t21i + t30i + t31i + (sxr * xi + sxi * xr) + (syr * yi + syi * yr);
+    const vr = t00r * rl + t02r + (t03r * idr - t03i * idi);
+    const vi = t00i * rl + t02i + (t03r * idi + t03i * idr);
+    const cr = t20r * rl + t22r + (t23r * idr - t23i * idi);
+    const ci = t20i * rl + t22i + (t23r * idi + t23i * idr);
     const denr = vr + rs * cr, deni = vi + rs * ci;
-    const cmRatio = ((denr * denr + deni * deni) * rl * rl) / sum2;
+    const cmRatio = (denr * denr + deni * deni) / sum2;
 
-    const m00r = t00r * zl + t02r + zs * (t20r * zl + t22r), m00i = t00i * zl + t02i + zs * (t20i * zl + t22i);
-    const m01r = t01r * zl + t03r + zs * (t21r * zl + t23r), m01i = t01i * zl + t03i + zs * (t21i * zl + t23i);
-    const m10r = t10r * zl + t12r + zs * (t30r * zl + t32r), m10i = t10i * zl + t12i + zs * (t30i * zl + t32i);
-    const m11r = t11r * zl + t13r + zs * (t31r * zl + t33r), m11i = t11i * zl + t13i + zs * (t31i * zl + t33i);
+    // Differential mode, balanced. Only N00 and det N are needed.
+    const m00r = t00r * ql + t02r + qs * (t20r * ql + t22r), m00i = t00i * ql + t02i + qs * (t20i * ql + t22i);
+    const m01r = t01r * ql + t03r + qs * (t21r * ql + t23r), m01i = t01i * ql + t03i + qs * (t21i * ql + t23i);
+    const m10r = t10r * ql + t12r + qs * (t30r * ql + t32r), m10i = t10i * ql + t12i + qs * (t30i * ql + t32i);
+    const m11r = t11r * ql + t13r + qs * (t31r * ql + t33r), m11i = t11i * ql + t13i + qs * (t31i * ql + t33i);
     const mdr = m00r * m11r - m00i * m11i - (m01r * m10r - m01i * m10i);
     const mdi = m00r * m11i + m00i * m11r - (m01r * m10i + m01i * m10r);
-    const sumr = m00r + m01r + m10r + m11r, sumi = m00i + m01i + m10i + m11i;
-    const dmRatio = (16 * (mdr * mdr + mdi * mdi)) / (sum2 * (sumr * sumr + sumi * sumi));
+    const dmRatio = (16 * (mdr * mdr + mdi * mdi)) / (sum2 * (m00r * m00r + m00i * m00i));
 
     cmLoss[i] = cmRatio;
     dmLoss[i] = dmRatio;
@@ -272,6 +238,19 @@ function terminateResistive(
       if (!(dmRatio < Infinity)) dmLoss[i] = 0;
     }
   }
+}
+
+/** out[i] = n / d; returns PointFlag.NotFinite (writing 0) when d is zero. */
+function writeQuotient(out: ComplexColumns, i: number, nr: number, ni: number, dr: number, di: number): number {
+  const d2 = dr * dr + di * di;
+  if (!(d2 > 0) || !(d2 < Infinity)) {
+    out.re[i] = 0;
+    out.im[i] = 0;
+    return PointFlag.NotFinite;
+  }
+  out.re[i] = (nr * dr + ni * di) / d2;
+  out.im[i] = (ni * dr - nr * di) / d2;
+  return 0;
 }
 
 /** Replace any non-finite value at point i with 0 so no NaN escapes; the point is already flagged. */

@@ -221,19 +221,57 @@ export function referenceChainMatrix(design: Design, frequencyHz: number): Matri
 }
 
 /**
- * Solve the terminated network: unknowns x = [V_out; I_out];
- * source rows [P_s Q_s]·T·x = e, load rows [P_l Q_l]·x = 0. Gaussian elimination with partial
+ * Mode coordinates: line quantities x = P·m with V = S·[v_c, v_d] (S = [[1, 1], [1, −1]]) and
+ * I = S'·[i_c, i_d] (S' = ½S). A chain matrix in modes is P⁻¹·T·P. The cascade is multiplied in
+ * modes so a choke's common-mode impedance and a near short between the lines stay out of each
+ * other's entries (docs/engine-math.md §6); each element is still written in line coordinates.
+ */
+const half = c(0.5);
+const P: Matrix = [
+  [ONE, ONE, ZERO, ZERO],
+  [ONE, c(-1), ZERO, ZERO],
+  [ZERO, ZERO, half, half],
+  [ZERO, ZERO, half, c(-0.5)],
+];
+const P_INVERSE: Matrix = [
+  [half, half, ZERO, ZERO],
+  [half, c(-0.5), ZERO, ZERO],
+  [ZERO, ZERO, ONE, ONE],
+  [ZERO, ZERO, ONE, c(-1)],
+];
+const S_PRIME: Matrix = [
+  [half, half],
+  [half, c(-0.5)],
+];
+
+/** The filter's chain matrix in mode coordinates: each element's line chain matrix, transformed, multiplied in order. */
+export function referenceModalChain(design: Design, frequencyHz: number): Matrix {
+  let chain = identity(4);
+  for (const element of elementChains(design, frequencyHz)) chain = multiply(chain, multiply(multiply(P_INVERSE, element), P));
+  return chain;
+}
+
+/**
+ * Solve the terminated network for the output in mode coordinates, m = [v_c, v_d, i_c, i_d]:
+ * `tModal` is the chain in modes and the constraints are written in line coordinates, so
+ * source rows [P_s Q_s]·P·T_m·m = e, load rows [P_l Q_l]·P·m = 0. Gaussian elimination with partial
  * pivoting on an equilibrated system: currents are solved as R0·I (R0 = 50 Ω) so all unknowns
  * are volts, and each row is scaled by its largest entry, so no row or column dominates the
  * pivot choice by its units alone.
  */
-function solveTerminated(t: Matrix, ps: Matrix, qs: Matrix, e: C[], pl: Matrix, ql: Matrix): C[] {
+function solveTerminated(tModal: Matrix, ps: Matrix, qs: Matrix, e: C[], pl: Matrix, ql: Matrix): C[] {
   const R0 = 50;
   const sourceRows = multiply(
-    ps.map((row, r) => [...row, ...qs[r]!]),
-    t,
+    multiply(
+      ps.map((row, r) => [...row, ...qs[r]!]),
+      P,
+    ),
+    tModal,
   );
-  const loadRows = pl.map((row, r) => [...row, ...ql[r]!]);
+  const loadRows = multiply(
+    pl.map((row, r) => [...row, ...ql[r]!]),
+    P,
+  );
   const rhs = [e[0]!, e[1]!, ZERO, ZERO];
   const a: C[][] = [];
   const b: C[] = [];
@@ -285,7 +323,7 @@ export function referenceEvaluate(
 ): NetworkResponse {
   const out = allocateResponse(frequencyHz.length, systems.length);
   frequencyHz.forEach((f, i) => {
-    const t = referenceChainMatrix(design, f);
+    const t = referenceModalChain(design, f);
     const zl1 = referenceReceiverImpedance(design.receivers.line1, f);
     const zl2 = referenceReceiverImpedance(design.receivers.line2, f);
     const zcm = referencePartImpedance(design.noiseSource.commonMode.impedance, f);
@@ -296,62 +334,50 @@ export function referenceEvaluate(
       column.re[i] = value.re;
       column.im[i] = value.im;
     };
-    // Terminate the chain by the receivers, V_out = Z_L·I_out, which leaves two source equations
-    // N·I_out = E with N = (A Z_L + B) + Z_S (C Z_L + D). With Z_S = (Z_dm/2)·I + Z_cm·u uᵀ
-    // (u = [1, 1]) this is N = K + Z_cm·u wᵀ, K = X + (Z_dm/2)·W, wᵀ = uᵀ W, and the
-    // matrix determinant lemma gives det N = det K + Z_cm·wᵀ adj(K) u without subtracting the
-    // large rank-one part from itself (docs/engine-math.md §4.1).
+    // In circuit, in modes: the receivers are Z_L,m = S'·Z_L·S'; the source (half Z_dm in each
+    // line, Z_cm from the midpoint) is diagonal, Z_S,m = diag(Z_cm + Z_dm/4, Z_dm/4); the EMFs are
+    // [1, 0] (common mode) and [0, 1] (differential mode). With v_out = Z_L,m·i_out the source
+    // equations read N·i_out = e, N = (A Z_L,m + B) + Z_S,m (C Z_L,m + D).
+    const zLoadModal = multiply(multiply(S_PRIME, zLoad), S_PRIME);
+    const zSourceModal = diagonal(zcm.add(zdm.div(4)), zdm.div(4));
     const solveInCircuit = (chain: Matrix, emf: C[]): C[] => {
-      const x = add(multiply(block(chain, 0, 0), zLoad), block(chain, 0, 2));
-      const w = add(multiply(block(chain, 2, 0), zLoad), block(chain, 2, 2));
-      const k = add(x, scale(w, zdm.div(2)));
-      const wRow = [w[0]![0]!.add(w[1]![0]!), w[0]![1]!.add(w[1]![1]!)];
-      const adjK: Matrix = [
-        [k[1]![1]!, k[0]![1]!.neg()],
-        [k[1]![0]!.neg(), k[0]![0]!],
-      ];
-      const adjKu = [adjK[0]![0]!.add(adjK[0]![1]!), adjK[1]![0]!.add(adjK[1]![1]!)];
-      const detK = k[0]![0]!.mul(k[1]![1]!).sub(k[0]![1]!.mul(k[1]![0]!));
-      const detN = detK.add(zcm.mul(wRow[0]!.mul(adjKu[0]!).add(wRow[1]!.mul(adjKu[1]!))));
-      // adj(N) = adj(K) + Z_cm·adj(u wᵀ), adj(u wᵀ) = [[w1, −w1], [−w0, w0]]
-      const adjN: Matrix = [
-        [adjK[0]![0]!.add(zcm.mul(wRow[1]!)), adjK[0]![1]!.sub(zcm.mul(wRow[1]!))],
-        [adjK[1]![0]!.sub(zcm.mul(wRow[0]!)), adjK[1]![1]!.add(zcm.mul(wRow[0]!))],
-      ];
-      const current = multiply(adjN, [[emf[0]!], [emf[1]!]]).map((row) => row[0]!.div(detN));
-      return [zl1.mul(current[0]!), zl2.mul(current[1]!)];
+      const x = add(multiply(block(chain, 0, 0), zLoadModal), block(chain, 0, 2));
+      const w = add(multiply(block(chain, 2, 0), zLoadModal), block(chain, 2, 2));
+      const n = add(x, multiply(zSourceModal, w));
+      const current = multiply(inverse2(n), [[emf[0]!], [emf[1]!]]);
+      const v = multiply(zLoadModal, current);
+      return [v[0]![0]!, v[1]![0]!];
     };
-    const cm = solveInCircuit(t, [ONE, ONE]);
-    const dm = solveInCircuit(t, [ONE, c(-1)]);
-    write(out.line1FromCm, cm[0]!);
-    write(out.line2FromCm, cm[1]!);
-    write(out.line1FromDm, dm[0]!);
-    write(out.line2FromDm, dm[1]!);
-    write(out.cmFromCm, cm[0]!.add(cm[1]!).div(2));
-    write(out.dmFromCm, cm[0]!.sub(cm[1]!).div(2));
-    write(out.cmFromDm, dm[0]!.add(dm[1]!).div(2));
-    write(out.dmFromDm, dm[0]!.sub(dm[1]!).div(2));
-    const bareCm = solveInCircuit(identity(4), [ONE, ONE]);
-    const bareDm = solveInCircuit(identity(4), [ONE, c(-1)]);
-    write(out.bareCmFromCm, bareCm[0]!.add(bareCm[1]!).div(2));
-    write(out.bareDmFromDm, bareDm[0]!.sub(bareDm[1]!).div(2));
+    const cm = solveInCircuit(t, [ONE, ZERO]);
+    const dm = solveInCircuit(t, [ZERO, ONE]);
+    write(out.cmFromCm, cm[0]!);
+    write(out.dmFromCm, cm[1]!);
+    write(out.cmFromDm, dm[0]!);
+    write(out.dmFromDm, dm[1]!);
+    write(out.line1FromCm, cm[0]!.add(cm[1]!));
+    write(out.line2FromCm, cm[0]!.sub(cm[1]!));
+    write(out.line1FromDm, dm[0]!.add(dm[1]!));
+    write(out.line2FromDm, dm[0]!.sub(dm[1]!));
+    write(out.bareCmFromCm, solveInCircuit(identity(4), [ONE, ZERO])[0]!);
+    write(out.bareDmFromDm, solveInCircuit(identity(4), [ZERO, ONE])[1]!);
 
-    // Input impedance: walk from the receivers back to the source, adding each series
-    // impedance matrix and, for each shunt, its admittance matrix. Line to line (I1 = −I2):
-    // Z11 − Z12 − Z21 + Z22; lines joined (V1 = V2): 1 / (sum of the entries of Z⁻¹).
-    let zIn = zLoad;
+    // Input impedance: walk from the receivers back to the source in mode coordinates, adding
+    // each series impedance matrix and, for each shunt, its admittance matrix. A differential
+    // current (i = [0, i_d]) sees 4·Z11 line to line; joined lines hold v_d = 0.
+    let zIn = zLoadModal;
     for (const element of elementChains(design, f).reverse()) {
-      zIn = inverse2(add(inverse2(add(zIn, block(element, 0, 2))), block(element, 2, 0)));
+      const modal = multiply(multiply(P_INVERSE, element), P);
+      zIn = inverse2(add(inverse2(add(zIn, block(modal, 0, 2))), block(modal, 2, 0)));
     }
-    write(out.inputImpedanceDm, zIn[0]![0]!.sub(zIn[0]![1]!).sub(zIn[1]![0]!).add(zIn[1]![1]!));
-    const yIn = inverse2(zIn);
-    write(out.inputImpedanceCm, ONE.div(yIn[0]![0]!.add(yIn[0]![1]!).add(yIn[1]![0]!).add(yIn[1]![1]!)));
+    write(out.inputImpedanceDm, zIn[1]![1]!.mul(4));
+    write(out.inputImpedanceCm, zIn[0]![0]!.sub(zIn[0]![1]!.mul(zIn[1]![0]!).div(zIn[1]![1]!)));
 
     systems.forEach((system, s) => {
       const rs = system.sourceOhm;
       const rl = system.loadOhm;
       const without = rl / (rs + rl);
-      // Common mode: the lines tied at each end (V1 − V2 = 0), r_s and r_l to ground.
+      // Common mode: the lines tied at each end (V1 − V2 = 0), r_s and r_l to ground; the
+      // solution is in modes, so the joined lines' voltage is v_c.
       const tie: Matrix = [
         [ONE, c(-1)],
         [ONE, ZERO],
@@ -384,7 +410,7 @@ export function referenceEvaluate(
       out.resistiveCmLoss[s]![i] = (without / cm[0]!.abs()) ** 2;
       // Differential mode: r_s/2 and r_l/2 per line, EMF ±1/2, measured line to line.
       const dm = solveTerminated(t, id, scale(id, c(rs / 2)), [c(0.5), c(-0.5)], id, scale(id, c(-rl / 2)));
-      out.resistiveDmLoss[s]![i] = (without / dm[0]!.sub(dm[1]!).abs()) ** 2;
+      out.resistiveDmLoss[s]![i] = (without / dm[1]!.mul(2).abs()) ** 2;
     });
   });
   return out;
