@@ -47,3 +47,4 @@ export {
   type SweepJson,
 } from './sweep-export.ts';
 export { parseJsonText, locateJsonSyntaxError, type JsonSyntaxError, type JsonTextResult } from './json-text.ts';
+export { readMaskCsv, maskToCsv } from './mask-csv.ts';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { emissionsFields } from './emissions-schema.ts';
 import { optionalQuantity, quantity, quantityOr } from './quantity-field.ts';
 
 /**
@@ -225,6 +226,48 @@ export const noiseSourceSchema = z.strictObject({
   differentialMode: noiseSourceModeSchema,
 });
 
+/**
+ * The filter that was fitted when a scan was taken: none, or stages of the same shape as the
+ * design's (same noise source and receivers). Predictions scale the scan by T_new / T_baseline.
+ */
+export const baselineSchema = z.discriminatedUnion('kind', [
+  z.strictObject({ kind: z.literal('none') }),
+  z.strictObject({ kind: z.literal('stages'), label: label.optional(), stages: z.array(stageSchema).max(32) }),
+]);
+
+export const emissionsSchema = z
+  .strictObject({
+    ...emissionsFields,
+    baseline: baselineSchema.default({ kind: 'none' }),
+  })
+  .superRefine((emissions, ctx) => {
+    const maskIds = new Map<string, number>();
+    emissions.masks.forEach((mask, m) => {
+      const other = maskIds.get(mask.id);
+      if (other !== undefined) {
+        ctx.addIssue({ code: 'custom', path: ['masks', m, 'id'], message: `id "${mask.id}" is already used at masks[${other}]`, params: { code: 'duplicate-id' } });
+      } else maskIds.set(mask.id, m);
+    });
+    emissions.bands.forEach((band, b) => {
+      if (!(band.stopHz > band.startHz)) {
+        ctx.addIssue({ code: 'custom', path: ['bands', b, 'stopHz'], message: `stop (${band.stopHz} Hz) must be above start (${band.startHz} Hz)` });
+      }
+    });
+    if (emissions.baseline.kind === 'stages') {
+      const seen = new Map<string, string>();
+      emissions.baseline.stages.forEach((stage, s) => {
+        for (const [id, where, path] of [
+          [stage.id, `baseline.stages[${s}]`, ['baseline', 'stages', s, 'id']] as const,
+          ...stage.elements.map((element, e) => [element.id, `baseline.stages[${s}].elements[${e}]`, ['baseline', 'stages', s, 'elements', e, 'id']] as const),
+        ]) {
+          const other = seen.get(id);
+          if (other) ctx.addIssue({ code: 'custom', path: [...path], message: `id "${id}" is already used at ${other}`, params: { code: 'duplicate-id' } });
+          else seen.set(id, where);
+        }
+      });
+    }
+  });
+
 export const MAX_SWEEP_POINTS = 1_000_000;
 
 export const frequencyPlanSchema = z
@@ -259,6 +302,8 @@ export const designSchema = z
     noiseSource: noiseSourceSchema,
     receivers: z.strictObject({ line1: receiverSchema, line2: receiverSchema }),
     stages: z.array(stageSchema).max(32),
+    /** Limits, margin, bands, scan attribution, baseline and noise estimate; absent until used. */
+    emissions: emissionsSchema.optional(),
   })
   .superRefine((design, ctx) => {
     const seen = new Map<string, string>();

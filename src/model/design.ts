@@ -18,7 +18,10 @@ import type {
   resistorSchema,
   stageSchema,
   twoTerminalSchema,
+  emissionsSchema,
+  baselineSchema,
 } from './design-schema.ts';
+import type { limitMaskSchema, noiseEstimateSchema, bandSchema, trapezoidSchema } from './emissions-schema.ts';
 
 /** A design after validation: every physical value is an SI number, defaults filled in. */
 export type Design = z.output<typeof designSchema>;
@@ -43,3 +46,10 @@ export type Receiver = z.output<typeof receiverSchema>;
 export type NoiseSource = z.output<typeof noiseSourceSchema>;
 export type FrequencyPlan = z.output<typeof frequencyPlanSchema>;
 export type PartKind = Part['kind'];
+export type Emissions = z.output<typeof emissionsSchema>;
+export type Baseline = z.output<typeof baselineSchema>;
+export type LimitMask = z.output<typeof limitMaskSchema>;
+export type LimitMaskInput = z.input<typeof limitMaskSchema>;
+export type NoiseEstimate = z.output<typeof noiseEstimateSchema>;
+export type Band = z.output<typeof bandSchema>;
+export type Trapezoid = z.output<typeof trapezoidSchema>;

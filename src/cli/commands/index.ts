@@ -1,5 +1,7 @@
 import type { Command } from '../command.ts';
+import { checkCommand } from './check.ts';
+import { measuredPartCommand } from './measured-part.ts';
 import { sweepCommand } from './sweep.ts';
 
 /** Every command, in the order the help lists them. A new command is one more entry here. */
-export const COMMANDS: readonly Command[] = [sweepCommand];
+export const COMMANDS: readonly Command[] = [sweepCommand, checkCommand, measuredPartCommand];

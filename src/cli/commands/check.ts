@@ -1,0 +1,235 @@
+import { parseFrequencyUnit } from '../../io/frequency-unit.ts';
+import { readMaskCsv } from '../../io/mask-csv.ts';
+import { formatLineIssue } from '../../io/text-issues.ts';
+import { readScanText, type ScanCsvOptions } from '../../io/scan-csv.ts';
+import type { Design, LimitMask } from '../../model/design.ts';
+import { ATTRIBUTIONS } from '../../model/emissions-schema.ts';
+import { formatQuantity } from '../../model/index.ts';
+import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../../spectrum/emissions-analysis.ts';
+import { LEVEL_UNIT_NAMES, type LevelUnitName } from '../../spectrum/level-units.ts';
+import { copyPreset, findPreset, LIMIT_PRESETS } from '../../spectrum/limit-presets.ts';
+import type { MarginPoint } from '../../spectrum/margin.ts';
+import { SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import type { ParsedArgs } from '../args.ts';
+import type { Command, CommandContext } from '../command.ts';
+import { listProblems, loadDesign, readInputFile } from '../design-input.ts';
+import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
+import { tell, writeOutput } from '../output.ts';
+
+const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
+const DEMO_SCAN = 'fixtures/scans/invented-adapter-no-filter.csv';
+
+export const checkCommand: Command = {
+  name: 'check',
+  summary: 'predict the emissions with the design’s filter and judge them against limits: the margin table',
+  description: [
+    'Predicts what the receivers would read with the design’s filter and prints the margin table: worst margin overall and per band, the worst peaks, the failing ranges, and the attenuation still missing per mode. The noise comes from a scan (--scan), scaled by the filter’s in-circuit transfer over the baseline’s (the filter fitted when the scan was taken, from the design’s emissions.baseline; none by default), or from the design’s noise estimate (--estimate).',
+    'Limits come from --limit (preset ids or mask CSV files, comma-separated) or else from the design’s emissions.masks. A peak scan judged against a quasi-peak or average limit is conservative, and the table says so.',
+    'Exit code 0 when every band keeps the target margin, 1 when one does not, 2 on bad input.',
+  ],
+  arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1)' }],
+  options: [
+    { name: 'scan', value: 'file', description: 'a scan: CSV or whitespace table of frequency and level columns (docs/scan-import.md)' },
+    { name: 'estimate', description: 'use the design’s noise estimate (emissions.estimate) instead of a scan' },
+    { name: 'limit', value: 'ids', description: `limit masks: preset ids or mask CSV files, comma-separated (presets: ${LIMIT_PRESETS.map((p) => p.id).join(', ')})` },
+    { name: 'margin', value: 'dB', description: 'target margin below every limit (default: the design’s, else 6)' },
+    { name: 'scan-tag', value: 'tag', description: `what the scan measured: ${SCAN_TAGS.join(', ')} (default total)` },
+    { name: 'attribution', value: 'mode', description: `for a scan of unknown mode: ${ATTRIBUTIONS.join(', ')} (default: the design’s, else both)` },
+    { name: 'noise-floor', value: 'dBµV', description: 'scan points at or below this level are left out of the required attenuation' },
+    { name: 'frequency-unit', value: 'unit', description: 'the scan’s frequency unit when its header names none: Hz, kHz, MHz, GHz' },
+    { name: 'level-unit', value: 'unit', description: 'the scan’s level unit when its header names none: dBuV, dBm, dBuA, V, dBV' },
+    { name: 'transfer-impedance', value: 'ohm', description: 'for levels in dBµA: the current probe’s transfer impedance in Ω' },
+    { name: 'peaks', value: 'n', description: 'how many worst peaks to list (default 10)' },
+    { name: 'json', description: 'write the analysis as JSON instead of the table' },
+    { name: 'out', short: 'o', value: 'file', description: 'write to <file> instead of standard output' },
+  ],
+  examples: [
+    { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --limit cispr32-class-b-qp,cispr32-class-b-av`, description: 'the invented demo against its invented scan, class B' },
+    { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --margin 3 --json -o check.json`, description: 'the design’s own limits, 3 dB target, as JSON' },
+  ],
+  run: runCheck,
+};
+
+async function runCheck(args: ParsedArgs, context: CommandContext): Promise<number> {
+  const scanPath = args.value('scan');
+  const useEstimate = args.flag('estimate');
+  if ((scanPath === undefined) === !useEstimate) throw new UsageError('give either --scan <file> or --estimate', 'check');
+  const targetMarginDb = readNumber(args, 'margin', -40, 60);
+  const noiseFloorDbuV = readNumber(args, 'noise-floor', -200, 300);
+  const peaks = readNumber(args, 'peaks', 1, 1000);
+  const attribution = readChoice(args, 'attribution', ATTRIBUTIONS);
+  const scanOptions = readScanOptions(args, scanPath);
+
+  const design = await loadDesign(context, args.positionals[0]!);
+  const masks = await readMasks(args, context, design);
+  let input: NoiseInput;
+  if (scanPath !== undefined) {
+    const read = readScanText(await readInputFile(context, scanPath, 'the scan'), scanOptions);
+    if (!read.ok) {
+      throw new CliError(`${scanPath}: ${read.error.message}`, listProblems(read.error.rejected.map((r) => `line ${r.line}: ${r.reason}`)));
+    }
+    for (const rejected of read.scan.rejected.slice(0, 20)) tell(context, `warning: ${scanPath}, line ${rejected.line} left out: ${rejected.reason}`);
+    if (read.scan.rejected.length > 20) tell(context, `warning: ${scanPath}: ${read.scan.rejected.length - 20} more lines left out`);
+    input = { kind: 'scan', scan: read.scan };
+  } else {
+    if (!design.emissions?.estimate) throw new CliError('--estimate: the design has no emissions.estimate (docs/design-format.md)');
+    input = { kind: 'estimate' };
+  }
+
+  let analysis: EmissionsAnalysis;
+  try {
+    analysis = analyzeEmissions(design, input, {
+      masks,
+      ...(targetMarginDb === undefined ? {} : { targetMarginDb }),
+      ...(noiseFloorDbuV === undefined ? {} : { noiseFloorDbuV }),
+      ...(attribution === undefined ? {} : { attribution }),
+      ...(peaks === undefined ? {} : { worstPeakCount: peaks }),
+    });
+  } catch (error) {
+    if (error instanceof RangeError) throw new CliError(error.message);
+    throw error;
+  }
+  const text = args.flag('json') ? `${JSON.stringify(analysisToJson(design, analysis))}\n` : marginTable(design, analysis, scanPath);
+  await writeOutput(context, args.value('out'), text);
+  return analysis.report.pass ? ExitCode.Ok : ExitCode.NotPassed;
+}
+
+function readNumber(args: ParsedArgs, name: string, min: number, max: number): number | undefined {
+  const text = args.value(name);
+  if (text === undefined) return undefined;
+  const value = Number(text.trim().replace(/\s*dB(µV|uV)?$/iu, ''));
+  if (!(Number.isFinite(value) && value >= min && value <= max) || text.trim() === '') {
+    throw new UsageError(`--${name} must be a number from ${min} to ${max}, got "${text}"`, 'check');
+  }
+  return value;
+}
+
+function readChoice<T extends string>(args: ParsedArgs, name: string, choices: readonly T[]): T | undefined {
+  const text = args.value(name);
+  if (text === undefined) return undefined;
+  const choice = choices.find((c) => c === text);
+  if (!choice) throw new UsageError(`--${name} must be one of ${choices.join(', ')}, got "${text}"`, 'check');
+  return choice;
+}
+
+function readScanOptions(args: ParsedArgs, scanPath: string | undefined): ScanCsvOptions {
+  const tag: ScanTag | undefined = readChoice(args, 'scan-tag', SCAN_TAGS);
+  const frequencyText = args.value('frequency-unit');
+  const frequencyUnit = frequencyText === undefined ? undefined : parseFrequencyUnit(frequencyText);
+  if (frequencyText !== undefined && frequencyUnit === undefined) throw new UsageError(`--frequency-unit must be Hz, kHz, MHz or GHz, got "${frequencyText}"`, 'check');
+  const levelText = args.value('level-unit');
+  const levelUnit: LevelUnitName | undefined = levelText === undefined ? undefined : LEVEL_UNIT_NAMES.find((u) => u.toLowerCase() === levelText.toLowerCase());
+  if (levelText !== undefined && levelUnit === undefined) throw new UsageError(`--level-unit must be dBuV, dBm, dBuA, V or dBV, got "${levelText}"`, 'check');
+  const transfer = readNumber(args, 'transfer-impedance', 1e-6, 1e6);
+  return {
+    name: scanPath ?? 'scan',
+    ...(tag ? { tag } : {}),
+    ...(frequencyUnit ? { frequencyUnit } : {}),
+    ...(levelUnit ? { levelUnit } : {}),
+    ...(transfer === undefined ? {} : { transferImpedanceOhm: transfer }),
+  };
+}
+
+/** --limit items: a preset id, or a mask CSV file; else the design's own masks. */
+async function readMasks(args: ParsedArgs, context: CommandContext, design: Design): Promise<LimitMask[]> {
+  const text = args.value('limit');
+  if (text === undefined) {
+    const own = design.emissions?.masks ?? [];
+    if (own.length === 0) throw new CliError('no limit to judge against: give --limit <preset ids or mask files> or add emissions.masks to the design');
+    return [...own];
+  }
+  const masks: LimitMask[] = [];
+  for (const item of text.split(',').map((s) => s.trim()).filter((s) => s !== '')) {
+    if (findPreset(item)) {
+      masks.push(copyPreset(item));
+      continue;
+    }
+    if (!/[./\\]/u.test(item)) {
+      throw new UsageError(`--limit: "${item}" is neither a preset (${LIMIT_PRESETS.map((p) => p.id).join(', ')}) nor a file name`, 'check');
+    }
+    const read = readMaskCsv(await readInputFile(context, item, 'the limit mask'), { id: `mask${masks.length + 1}`, name: item });
+    if (!read.ok) throw new CliError(`${item} is not a usable limit mask:`, listProblems(read.issues.map(formatLineIssue)));
+    masks.push(read.value.mask);
+  }
+  if (masks.length === 0) throw new UsageError('--limit needs at least one preset id or file', 'check');
+  return masks;
+}
+
+const MHZ = (f: number): string => formatQuantity(f, 'Hz', 4);
+const DB = (x: number): string => (Number.isFinite(x) ? x.toFixed(1) : '–');
+
+function pointRow(point: MarginPoint): string {
+  return `${DB(point.marginDb).padStart(7)} dB at ${MHZ(point.frequencyHz).padEnd(11)} level ${DB(point.levelDbuV).padStart(6)} dBµV, limit ${DB(point.limitDbuV).padStart(6)} dBµV (${point.maskName}; ${point.series})${point.conservative ? ' *' : ''}`;
+}
+
+/** The margin table as a person reads it at a terminal. */
+export function marginTable(design: Design, analysis: EmissionsAnalysis, scanPath: string | undefined): string {
+  const { report } = analysis;
+  const lines: string[] = [];
+  lines.push(`design: ${design.name}`);
+  lines.push(`noise: ${analysis.input === 'scan' ? `scan ${scanPath ?? ''}` : 'the design’s noise estimate'}; target margin ${report.targetMarginDb} dB`);
+  lines.push(`limits: ${analysis.masks.map((m) => `${m.name} (${m.detector})`).join('; ')}`);
+  lines.push('');
+  lines.push('band                     worst margin');
+  for (const band of report.bands) {
+    const verdict = band.pass === undefined ? 'no limit here' : band.pass ? 'meets target' : 'BELOW TARGET';
+    lines.push(`${band.name.padEnd(24)} ${band.worst ? pointRow(band.worst) : '–'}  ${verdict}`);
+  }
+  lines.push('');
+  lines.push(`worst peaks (lowest margin first):`);
+  for (const point of report.worstPeaks) lines.push(`  ${pointRow(point)}`);
+  lines.push('');
+  if (report.failingRanges.length === 0) lines.push('failing ranges: none');
+  else {
+    lines.push(`ranges below the ${report.targetMarginDb} dB target:`);
+    for (const range of report.failingRanges) lines.push(`  ${MHZ(range.startHz)} to ${MHZ(range.stopHz)}: worst ${pointRow(range.worst)}`);
+  }
+  lines.push('');
+  for (const [mode, required] of [
+    ['common mode', analysis.requiredAttenuationCmDb],
+    ['differential mode', analysis.requiredAttenuationDmDb],
+  ] as const) {
+    if (!required) continue;
+    let worst = -1;
+    for (let i = 0; i < required.length; i += 1) if (Number.isFinite(required[i]!) && (worst < 0 || required[i]! > required[worst]!)) worst = i;
+    lines.push(
+      worst < 0
+        ? `attenuation needed, ${mode}: –`
+        : `attenuation needed, ${mode}: up to ${DB(required[worst]!)} dB (at ${MHZ(analysis.frequencyHz[worst]!)}), for the limit less ${report.targetMarginDb} dB with no filter`,
+    );
+  }
+  if (report.comparisons.some((c) => c.conservative)) lines.push('* a peak (or quasi-peak) reading judged against a lower-reading detector’s limit: conservative');
+  for (const note of [...analysis.notes, ...report.notes]) lines.push(`note: ${note}`);
+  lines.push('');
+  const failing = report.bands.filter((b) => b.pass === false).length;
+  lines.push(report.pass ? `RESULT: PASS, every band keeps ${report.targetMarginDb} dB of margin` : `RESULT: FAIL, ${failing} band${failing === 1 ? '' : 's'} below the ${report.targetMarginDb} dB target`);
+  return `${lines.join('\n')}\n`;
+}
+
+function analysisToJson(design: Design, analysis: EmissionsAnalysis): unknown {
+  const list = (a: Float64Array | undefined): (number | null)[] | undefined => (a ? Array.from(a, (x) => (Number.isFinite(x) ? x : null)) : undefined);
+  return {
+    design: design.name,
+    input: analysis.input,
+    targetMarginDb: analysis.report.targetMarginDb,
+    pass: analysis.report.pass,
+    masks: analysis.masks.map((m) => ({ id: m.id, name: m.name, detector: m.detector, origin: m.origin })),
+    bands: analysis.report.bands,
+    worst: analysis.report.worst,
+    worstPeaks: analysis.report.worstPeaks,
+    failingRanges: analysis.report.failingRanges,
+    notes: [...analysis.notes, ...analysis.report.notes],
+    frequencyHz: list(analysis.frequencyHz),
+    predicted: analysis.predicted.map((s) => ({ label: s.label, detector: s.detector, levelDbuV: list(s.levelDbuV) })),
+    comparisons: analysis.report.comparisons.map((c) => ({
+      series: c.series,
+      detector: c.seriesDetector,
+      mask: c.maskName,
+      conservative: c.conservative,
+      limitDbuV: list(c.limitDbuV),
+      marginDb: list(c.marginDb),
+    })),
+    requiredAttenuationCmDb: list(analysis.requiredAttenuationCmDb),
+    requiredAttenuationDmDb: list(analysis.requiredAttenuationDmDb),
+  };
+}

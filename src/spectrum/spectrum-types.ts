@@ -1,0 +1,38 @@
+/**
+ * Shared shapes for "noise in, margin out": scans and the detectors that tie them to limit masks.
+ * Levels are in dBµV at the receiver's input (the LISN's measuring port); frequencies in Hz.
+ * Columnar like the sweep result: one frequency axis and Float64Array columns beside it.
+ */
+import type { Detector } from '../model/emissions-schema.ts';
+
+export type { Attribution, Detector } from '../model/emissions-schema.ts';
+
+/**
+ * What a scan measured: one line's receiving network, a mode from a CM/DM separator, or the
+ * total on a line when the mode is unknown.
+ */
+export const SCAN_TAGS = ['line1', 'line2', 'common-mode', 'differential-mode', 'total'] as const;
+export type ScanTag = (typeof SCAN_TAGS)[number];
+
+/** One detector's readings over the scan's frequency axis, in dBµV. */
+export interface ScanTrace {
+  readonly detector: Detector;
+  readonly levelDbuV: Float64Array;
+}
+
+/** A line the importer could not use, and why (1-based line number in the file). */
+export interface RejectedLine {
+  readonly line: number;
+  readonly reason: string;
+}
+
+export interface Scan {
+  readonly name: string;
+  readonly tag: ScanTag;
+  /** Strictly rising. */
+  readonly frequencyHz: Float64Array;
+  readonly traces: readonly ScanTrace[];
+  readonly rejected: readonly RejectedLine[];
+  /** How the file's columns were read (units, separator, assumptions), for the report. */
+  readonly notes: readonly string[];
+}
