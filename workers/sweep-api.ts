@@ -1,7 +1,12 @@
 import * as Comlink from 'comlink';
 import { sweepDesign, type SweepResult, transferables } from '../src/engine/index.ts';
 import { formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
+import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../src/spectrum/emissions-analysis.ts';
+import { estimateIssues } from '../src/spectrum/noise-estimate.ts';
+import type { Scan } from '../src/spectrum/spectrum-types.ts';
+import { type EmissionsFailure, type EmissionsFailureKind, type EmissionsReply, emissionsRequestSchema } from './emissions-protocol.ts';
 import { type SweepFailure, type SweepFailureKind, type SweepReply, sweepRequestSchema } from './sweep-protocol.ts';
+import { collectTransferables } from './transferables.ts';
 
 /**
  * The object the sweep worker exposes. It holds no DOM and no state, so tests call it directly
@@ -32,11 +37,72 @@ export const sweepApi = {
     // The columns share a few ArrayBuffers; moving them avoids copying megabytes per sweep.
     return Comlink.transfer({ ok: true, requestId, result, elapsedMs }, transferables(result));
   },
+
+  /**
+   * Predict the levels with the design's filter and judge them against its limit masks: the
+   * margin report of docs/limits.md, from a scan (scaled by the filter's in-circuit transfer) or
+   * from the design's noise estimate. The same analysis as `chokepoint check`.
+   */
+  analyzeEmissions(request: unknown): EmissionsReply {
+    const started = performance.now();
+    const parsed = emissionsRequestSchema.safeParse(request, { reportInput: true });
+    if (!parsed.success) {
+      const issues = parsed.error.issues.map(toValidationIssue);
+      return emissionsFailure(salvageRequestId(request), 'invalid-request', 'invalid emissions request', issues);
+    }
+    const { requestId, design, noise, options } = parsed.data;
+
+    const read = readDesign(design);
+    if (!read.ok) return emissionsFailure(requestId, 'invalid-design', 'invalid design', read.error.issues);
+    const estimate = read.value.emissions?.estimate;
+
+    let input: NoiseInput;
+    if (noise.kind === 'scan') {
+      const scan: Scan = noise.scan;
+      input = { kind: 'scan', scan };
+    } else {
+      if (!estimate || (!estimate.commonMode && !estimate.differentialMode)) {
+        return emissionsFailure(requestId, 'invalid-request', 'no noise to analyse', [
+          { path: 'noise', code: 'invalid-value', message: 'the design has no noise estimate (emissions.estimate); send a scan instead' },
+        ]);
+      }
+      const problems = estimateIssues(estimate);
+      if (problems.length > 0) {
+        const issues = problems.map(
+          (problem): ValidationIssue => ({ path: `emissions.estimate.${problem.path.join('.')}`, code: 'invalid-value', message: problem.message }),
+        );
+        return emissionsFailure(requestId, 'invalid-design', 'the noise estimate cannot be evaluated', issues);
+      }
+      input = { kind: 'estimate' };
+    }
+
+    let analysis: EmissionsAnalysis;
+    try {
+      analysis = analyzeEmissions(read.value, input, {
+        ...(options?.targetMarginDb === undefined ? {} : { targetMarginDb: options.targetMarginDb }),
+        ...(options?.attribution === undefined ? {} : { attribution: options.attribution }),
+        ...(options?.noiseFloorDbuV === undefined ? {} : { noiseFloorDbuV: options.noiseFloorDbuV }),
+        ...(options?.worstPeakCount === undefined ? {} : { worstPeakCount: options.worstPeakCount }),
+      });
+    } catch (cause) {
+      const message = cause instanceof Error ? cause.message : String(cause);
+      return emissionsFailure(requestId, 'engine-failure', `the emissions analysis failed: ${message}`, []);
+    }
+    const elapsedMs = performance.now() - started;
+    // A million-point scan makes tens of columns: move their buffers rather than copy them.
+    const reply = { ok: true as const, requestId, analysis, elapsedMs };
+    return Comlink.transfer(reply, collectTransferables(analysis));
+  },
 };
 
 export type SweepApi = typeof sweepApi;
 
 function failure(requestId: number | null, kind: SweepFailureKind, what: string, issues: readonly ValidationIssue[]): SweepFailure {
+  const detail = issues.map(formatIssue).join('; ');
+  return { ok: false, requestId, error: { kind, message: detail === '' ? what : `${what}: ${detail}`, issues } };
+}
+
+function emissionsFailure(requestId: number | null, kind: EmissionsFailureKind, what: string, issues: readonly ValidationIssue[]): EmissionsFailure {
   const detail = issues.map(formatIssue).join('; ');
   return { ok: false, requestId, error: { kind, message: detail === '' ? what : `${what}: ${detail}`, issues } };
 }

@@ -34,6 +34,7 @@ function recordingApi(): { api: SweepApi; sent: SweepReply[] } {
       sent.push(reply);
       return reply;
     },
+    analyzeEmissions: sweepApi.analyzeEmissions,
   };
   return { api, sent };
 }
