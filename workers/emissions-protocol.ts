@@ -14,7 +14,8 @@ import { SCAN_TAGS } from '../src/spectrum/spectrum-types.ts';
 /** A scan can hold a million rows; more than this many traces is not a receiver export. */
 const MAX_TRACES = 8;
 
-const float64 = z.instanceof(Float64Array, { message: 'expected a Float64Array' });
+// Typed as the Scan's own columns (any buffer), checked as a Float64Array of this realm.
+const float64 = z.custom<Float64Array>((value) => value instanceof Float64Array, { message: 'expected a Float64Array' });
 
 const scanSchema = z
   .strictObject({

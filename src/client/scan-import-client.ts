@@ -104,7 +104,7 @@ export function createScanImportWorkerClient(): ScanImportClient {
 export function readScanImportReply(reply: unknown): ScanImportReply {
   const parsed = replySchema.safeParse(reply);
   if (parsed.success) return parsed.data;
-  const detail = parsed.error.issues.map((issue) => `${issue.path.join('.') || 'reply'}: ${issue.message}`).join('; ');
+  const detail = parsed.error.issues.map((issue) => `${issue.path.map(String).join('.') || 'reply'}: ${issue.message}`).join('; ');
   return failure(`the scan import worker sent a malformed reply: ${detail}`);
 }
 

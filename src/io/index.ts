@@ -48,3 +48,4 @@ export {
 } from './sweep-export.ts';
 export { parseJsonText, locateJsonSyntaxError, type JsonSyntaxError, type JsonTextResult } from './json-text.ts';
 export { readMaskCsv, maskToCsv } from './mask-csv.ts';
+export { readScanText, readScanTextWithProgress, type ScanCsvOptions, type ScanReadResult } from './scan-csv.ts';

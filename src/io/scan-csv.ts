@@ -269,12 +269,12 @@ function splitLine(text: string, delimiter: TableDelimiter): string[] {
 /**
  * Every papaparse call of this reader, in step mode with the same options: mixing step and
  * whole-text calls made V8 deoptimise papaparse's parser, and the body of a large file then read
- * four times slower. Fields are trimmed; blanks between spaces and trailing empties are dropped.
+ * several times slower. Fields are trimmed; blanks between spaces and trailing empties are dropped.
  */
 function parseRows(
   text: string,
   delimiter: TableDelimiter,
-  onRow: (fields: string[], rowEnd: number, raw: readonly string[], quoteProblem: boolean) => void,
+  onRow: (fields: string[], rowEnd: number, quoteProblem: boolean) => void,
 ): void {
   const source = delimiter === 'whitespace' && text.includes('\t') ? text.replace(/\t/gu, ' ') : text;
   Papa.parse<string[]>(source, {
@@ -284,19 +284,26 @@ function parseRows(
     header: false,
     skipEmptyLines: false,
     step: (result) => {
-      onRow(cleanFields(result.data, delimiter), result.meta.cursor, result.data, result.errors.length > 0 && result.errors.some((e) => e.type === 'Quotes'));
+      const quoteProblem = result.errors.length > 0 && result.errors.some((e) => e.type === 'Quotes');
+      onRow(cleanFields(result.data, delimiter), result.meta.cursor, quoteProblem);
     },
   });
 }
 
-function cleanFields(raw: readonly string[], delimiter: TableDelimiter): string[] {
-  const fields: string[] = [];
-  for (const field of raw) {
-    const trimmed = field.trim();
-    if (delimiter !== 'whitespace' || trimmed !== '') fields.push(trimmed);
+/**
+ * Trim the fields in place (papaparse hands over a fresh array per row); drop blanks between
+ * spaces, or trailing empties. In place on purpose: a new array per row made V8 keep every row's
+ * garbage through a young-generation collection, which tripled the time of a million-row file.
+ */
+function cleanFields(raw: string[], delimiter: TableDelimiter): string[] {
+  let kept = 0;
+  for (let i = 0; i < raw.length; i += 1) {
+    const trimmed = raw[i]!.trim();
+    if (delimiter !== 'whitespace' || trimmed !== '') raw[kept++] = trimmed;
   }
-  if (delimiter !== 'whitespace') while (fields.length > 0 && fields[fields.length - 1] === '') fields.pop();
-  return fields;
+  if (delimiter !== 'whitespace') while (kept > 0 && raw[kept - 1] === '') kept -= 1;
+  raw.length = kept;
+  return raw;
 }
 
 /** A data line: a number first and at least two numbers (a header or a preamble line is not). */
@@ -348,29 +355,28 @@ interface NamedColumn {
 function readLayout(head: Head, options: ScanCsvOptions, notes: string[]): LayoutReading {
   const { delimiter, rows, firstDataIndex, width } = head;
 
-  // Header: the last non-blank line before the data; the lines before it are a preamble.
-  let headerIndex = -1;
-  for (let i = firstDataIndex - 1; i >= 0; i -= 1) {
-    if (rows[i]!.head.text.trim() !== '') {
-      headerIndex = i;
-      break;
-    }
-  }
+  // Header: the last non-blank, non-comment line before the data, or a comment after it that
+  // names the columns ("# f/MHz  peak/dBuV"); the other lines before the data are a preamble.
   let named: NamedColumn[] | undefined;
   let headerLine: number | undefined;
-  if (headerIndex >= 0) {
-    const row = rows[headerIndex]!;
+  let headerIndex = -1;
+  for (let i = firstDataIndex - 1; i >= 0 && headerIndex === -1; i -= 1) {
+    const row = rows[i]!;
+    if (row.head.text.trim() === '') continue;
     const header = readHeader(row, delimiter, width);
     if (header.kind === 'problem') return { kind: 'problem', message: `line ${row.head.line}: ${header.message}` };
     if (header.kind === 'columns') {
       named = header.columns;
       headerLine = row.head.line;
+      headerIndex = i;
       notes.push(`line ${row.head.line}: read as the header${row.comment ? ' (a comment line naming the columns)' : ''}`);
+    } else if (!row.comment) {
+      break;
     }
   }
   const preamble = rows
     .slice(0, firstDataIndex)
-    .filter((row, i) => i !== (headerLine === undefined ? -1 : headerIndex) && row.head.text.trim() !== '')
+    .filter((row, i) => i !== headerIndex && row.head.text.trim() !== '')
     .map((row) => row.head.line);
   if (preamble.length > 0) notes.push(`skipped ${describeLines(preamble)} before the data (comments and preamble)`);
 
@@ -460,7 +466,7 @@ function normaliseName(name: string): string {
 }
 
 const IGNORED_NAME =
-  /limit|margin|delta|diff|correct|(?<![a-z])corr(?![a-z])|transducer|factor|(?<![a-z])(?:index|idx|no|nr|n)(?![a-z])|^#$|comment|remark|(?<![a-z])notes?(?![a-z])|status|flag|rbw|ifbw|bandwidth|(?<![a-z])time(?![a-z])|polari[sz]|height|azimuth|angle|phase/u;
+  /limit|margin|delta|correct|(?<![a-z])corr(?![a-z])|transducer|factor|(?<![a-z])(?:index|idx|no|nr)(?![a-z])|^#$|comment|remark|(?<![a-z])notes?(?![a-z])|status|flag|rbw|ifbw|bandwidth|(?<![a-z])time(?![a-z])|polari[sz]|height|azimuth|angle|phase/u;
 const FREQUENCY_NAME = /fr[eé]q|(?<![a-z])f(?![a-z])|(?<![a-z])[kmg]?hz(?![a-z])/u;
 const HZ_UNIT = /(?<![a-z])([kmg]?hz)(?![a-z])/u;
 const QUASI_PEAK_NAME = /quasi[\s_-]*peak|(?<![a-z])qpk?(?![a-z])/gu;
@@ -578,7 +584,7 @@ function resolveColumns(named: readonly NamedColumn[], headerLine: number | unde
       detectorFrom = 'assumed: no detector named; peak is the usual scanning detector, give detectors if it is not';
     }
     const twin = seen.get(detector);
-    if (twin !== undefined) return problem(`two columns read as ${detector} (${quoteField(twin)} and ${quoteField(column.name)}); a scan holds one trace per detector`);
+    if (twin !== undefined) return problem(`two columns read as ${detector} (${quoteField(twin)} and ${quoteField(column.name)}); a scan holds one trace per detector, so a file with several lines or modes side by side must be split`);
     seen.set(detector, column.name);
 
     // Level unit: the column's, the option's, the other columns' single unit, or dBµV.
@@ -684,7 +690,7 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
   let line = firstData.line;
   let rowStart = 0;
 
-  parseRows(body, delimiter, (fields, rowEnd, raw, quoteProblem) => {
+  parseRows(body, delimiter, (fields, rowEnd, quoteProblem) => {
     const rowLine = line;
     for (let at = body.indexOf('\n', rowStart); at !== -1 && at < rowEnd; at = body.indexOf('\n', at + 1)) line += 1;
     rowStart = rowEnd;
@@ -692,8 +698,8 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
 
     if (fields.length === 0) return;
     if (quoteProblem) {
-      const swallowed = raw.reduce((sum, field) => sum + field.split('\n').length - 1, 0);
-      const extent = swallowed > 0 ? `: lines ${rowLine}–${rowLine + swallowed} were read as one field` : '';
+      const last = body.charCodeAt(rowEnd - 1) === 10 ? line - 1 : line;
+      const extent = last > rowLine ? `: lines ${rowLine}–${last} were read as one field` : '';
       rejections.add(rowLine, 'quote', `a quoted field is not closed${extent}`);
       return;
     }

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { type CliIo, runCli } from '../../src/cli/run-cli.ts';
+import { type CliRun, runInMemory } from '../support/cli-harness.ts';
 
 const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
 const SCAN = 'fixtures/scans/invented-adapter-no-filter.csv';
@@ -8,32 +8,8 @@ const read = (path: string): string => readFileSync(new URL(`../../${path}`, imp
 const demoText = read(DEMO);
 const scanText = read(SCAN);
 
-interface Run {
-  readonly code: number;
-  readonly stdout: string;
-  readonly stderr: string;
-}
-
-async function run(argv: string[], files: Record<string, string> = {}): Promise<Run> {
-  const all: Record<string, string> = { [DEMO]: demoText, [SCAN]: scanText, ...files };
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    readTextFile: async (path) => {
-      const text = all[path];
-      if (text === undefined) throw Object.assign(new Error(`ENOENT: '${path}'`), { code: 'ENOENT' });
-      return text;
-    },
-    writeTextFile: async () => undefined,
-    stdout: (text) => {
-      stdout += text;
-    },
-    stderr: (text) => {
-      stderr += text;
-    },
-    version: 'test',
-  };
-  return { code: await runCli(argv, io), stdout, stderr };
+async function run(argv: string[], files: Record<string, string> = {}): Promise<CliRun> {
+  return runInMemory(argv, { [DEMO]: demoText, [SCAN]: scanText, ...files });
 }
 
 interface CheckJson {

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { type CliIo, runCli } from '../../src/cli/run-cli.ts';
+import { type CliRun, runInMemory } from '../support/cli-harness.ts';
 import { readMaskCsv } from '../../src/io/mask-csv.ts';
 import { copyPreset, LIMIT_PRESETS } from '../../src/spectrum/limit-presets.ts';
 
@@ -8,26 +8,8 @@ const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
 const BAD = 'fixtures/masks/invented-with-errors.csv';
 const file = (path: string): string => readFileSync(new URL(`../../${path}`, import.meta.url), 'utf8');
 
-async function run(argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  const files: Record<string, string> = { [DEMO]: file(DEMO), [BAD]: file(BAD) };
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = {
-    readTextFile: async (path) => {
-      const text = files[path];
-      if (text === undefined) throw Object.assign(new Error(`ENOENT: '${path}'`), { code: 'ENOENT' });
-      return text;
-    },
-    writeTextFile: async () => undefined,
-    stdout: (text) => {
-      stdout += text;
-    },
-    stderr: (text) => {
-      stderr += text;
-    },
-    version: 'test',
-  };
-  return { code: await runCli(argv, io), stdout, stderr };
+async function run(argv: string[]): Promise<CliRun> {
+  return runInMemory(argv, { [DEMO]: file(DEMO), [BAD]: file(BAD) });
 }
 
 describe('chokepoint limits', () => {

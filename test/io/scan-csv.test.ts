@@ -231,6 +231,7 @@ describe('reading a scan: detectors', () => {
     ['one detector twice in the options', '1,50,40\n', { detectors: ['peak', 'peak'] }, /given twice/u],
     ['two columns of one detector', 'Frequency [MHz],Peak,Max Peak\n1,50,40\n', {}, /two columns read as peak/u],
     ['a column naming two detectors', 'Frequency [MHz],Peak-AV\n1,50\n', {}, /names more than one detector/u],
+    ['two lines side by side', 'Frequency [MHz],Peak L1,Peak N\n1,50,40\n', {}, /two columns read as peak \("Peak L1" and "Peak N"\).*must be split/u],
   ] as const)('refuses %s', (_what, text, options: ScanCsvOptions, message) => {
     expect(refused(text, options).message).toMatch(message);
   });
@@ -257,6 +258,21 @@ describe('reading a scan: comments, preamble and text', () => {
     const scan = read('# Frequency [MHz]  Peak [dBuV]  AV [dBuV]\n0.15 60 50\n1 55 45\n');
     expect(scan.traces.map((t) => t.detector)).toEqual(['peak', 'average']);
     expect(notes(scan)).toMatch(/line 1: read as the header \(a comment line naming the columns\)/u);
+  });
+
+  it('finds the header above comment lines that sit between it and the data', () => {
+    const scan = read('Frequency [MHz],Peak [dBm]\n# levels straight from the receiver\n0.15,-40\n1,-50\n');
+    expect([...scan.frequencyHz]).toEqual([150e3, 1e6]);
+    expect(levels(scan, 'peak')[0]).toBeCloseTo(66.99, 2);
+    expect(notes(scan)).toMatch(/line 1: read as the header/u);
+    expect(notes(scan)).toMatch(/skipped line 2 before the data/u);
+  });
+
+  it('finds the frequency column wherever it is, ignoring an index column', () => {
+    const scan = read('No.;Frequency [kHz];AV [dBµV]\n1;150;50\n2;200;48\n');
+    expect([...scan.frequencyHz]).toEqual([150e3, 200e3]);
+    expect(levels(scan, 'average')).toEqual([50, 48]);
+    expect(notes(scan)).toMatch(/ignored the column "No\."/u);
   });
 
   it('a title line that names no frequency is a preamble, not a header', () => {
@@ -319,7 +335,7 @@ describe('reading a scan: rejected lines', () => {
 
   it('rejects a line with an unclosed quote, saying how far it ran', () => {
     const scan = read('f/MHz,pk/dBuV\n0.15,60\n0.2,"59\n0.3,58\n');
-    expect(scan.rejected).toEqual([{ line: 3, reason: 'a quoted field is not closed: lines 3–5 were read as one field' }]);
+    expect(scan.rejected).toEqual([{ line: 3, reason: 'a quoted field is not closed: lines 3–4 were read as one field' }]);
     expect([...scan.frequencyHz]).toEqual([150e3]);
   });
 

@@ -1,10 +1,14 @@
 import { css, html, LitElement, nothing } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import demoDesign from '../../../fixtures/demo/adapter-two-stage.design.json';
+import type { EmissionsRequester } from '../../client/emissions-client.ts';
 import type { SweepRequester } from '../../client/sweep-client.ts';
+import { readDesign } from '../../model/index.ts';
 import '../charts/insertion-loss-chart.ts';
 import type { PlotFactory } from '../charts/chart-controller.ts';
 import '../design/stage-list.ts';
+import '../emissions/emissions-section.ts';
+import type { DesignEditEvent, ScanImporter } from '../emissions/emissions-section.ts';
 import '../sweep/resonance-list.ts';
 import '../sweep/warning-list.ts';
 import { sharedStyles, themeTokens } from '../styles/theme.ts';
@@ -145,6 +149,9 @@ export class ChokepointApp extends LitElement {
       .panel-head h2 {
         margin: 0;
       }
+      .emissions {
+        margin-top: var(--cp-gap);
+      }
       .pair {
         display: grid;
         gap: var(--cp-gap);
@@ -159,6 +166,16 @@ export class ChokepointApp extends LitElement {
 
   /** Runs the sweeps. Set before the element is put on the page; tests pass a fake. */
   @property({ attribute: false }) sweepClient: SweepRequester | undefined;
+
+  /** Runs the emissions analyses (in the sweep's worker). Tests pass a fake. */
+  @property({ attribute: false }) emissionsClient: EmissionsRequester | undefined;
+
+  /** Reads scan files in their own worker. Tests pass a fake. */
+  @property({ attribute: false }) scanImporter: ScanImporter | undefined;
+
+  /** The invented demo scan's text: a file of the repository, bundled at build time and fetched on first use. */
+  @property({ attribute: false }) loadDemoScan: () => Promise<string> = () =>
+    import('../../../fixtures/scans/invented-adapter-no-filter.csv?raw').then((module) => module.default);
 
   /** The design shown when the link carries none. */
   @property({ attribute: false }) demoDocument: unknown = demoDesign;
@@ -217,6 +234,18 @@ export class ChokepointApp extends LitElement {
       outcome.status === 'done' ? { kind: 'done', result: outcome.result, elapsedMs: outcome.elapsedMs } : { kind: 'failed', error: outcome.error };
   }
 
+  /**
+   * The emissions section changed the design (a mask, the target margin, the floor, the attribution).
+   * None of these changes the filter, so the sweep stands; the design on screen is replaced.
+   */
+  private readonly onDesignEdit = (event: DesignEditEvent): void => {
+    const current = this.designState;
+    if (current?.kind !== 'ready') return;
+    const read = readDesign(event.detail.document);
+    if (!read.ok) return;
+    this.designState = { kind: 'ready', origin: current.origin, document: event.detail.document, design: read.value };
+  };
+
   override render() {
     const design = this.designState;
     const result = this.sweepState.kind === 'done' ? this.sweepState.result : undefined;
@@ -273,6 +302,24 @@ export class ChokepointApp extends LitElement {
             <chokepoint-safety-note></chokepoint-safety-note>
           </div>
         </div>
+        ${design?.kind === 'ready'
+          ? html`<section class="panel emissions" aria-labelledby="emissions-title">
+              <div class="panel-head">
+                <h2 id="emissions-title">Emissions and margin</h2>
+                <span class="muted small">The levels this filter should give at the LISN, against the limits.</span>
+              </div>
+              <chokepoint-emissions
+                .document=${design.document}
+                .design=${design.design}
+                .demo=${design.origin === 'demo'}
+                .analyzer=${this.emissionsClient}
+                .scanImporter=${this.scanImporter}
+                .loadDemoScan=${this.loadDemoScan}
+                .createPlot=${this.createPlot}
+                @design-edit=${this.onDesignEdit}
+              ></chokepoint-emissions>
+            </section>`
+          : nothing}
       </main>
     `;
   }

@@ -1,0 +1,42 @@
+import { readFileSync } from 'node:fs';
+import { type CliIo, runCli } from '../../src/cli/run-cli.ts';
+
+export interface CliRun {
+  readonly code: number;
+  readonly stdout: string;
+  readonly stderr: string;
+  readonly written: ReadonlyMap<string, string>;
+}
+
+/** A repository file's text (paths relative to the repository root). */
+export function repoFile(path: string): string {
+  return readFileSync(new URL(`../../${path}`, import.meta.url), 'utf8');
+}
+
+/**
+ * Run the command line in-process: `files` maps paths to contents (anything else is ENOENT),
+ * writes are kept in `written`, nothing touches the disk or the real console.
+ */
+export async function runInMemory(argv: string[], files: Record<string, string>): Promise<CliRun> {
+  const written = new Map<string, string>();
+  let stdout = '';
+  let stderr = '';
+  const io: CliIo = {
+    readTextFile: async (path) => {
+      const text = files[path];
+      if (text === undefined) throw Object.assign(new Error(`ENOENT: no such file, '${path}'`), { code: 'ENOENT' });
+      return text;
+    },
+    writeTextFile: async (path, text) => {
+      written.set(path, text);
+    },
+    stdout: (text) => {
+      stdout += text;
+    },
+    stderr: (text) => {
+      stderr += text;
+    },
+    version: 'test',
+  };
+  return { code: await runCli(argv, io), stdout, stderr, written };
+}

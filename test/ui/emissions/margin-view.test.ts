@@ -1,0 +1,121 @@
+// @vitest-environment node
+// What the margin table says is worked out without a DOM.
+import { describe, expect, it } from 'vitest';
+import type { EmissionsAnalysis } from '../../../src/spectrum/emissions-analysis.ts';
+import type { MarginPoint, MarginReport } from '../../../src/spectrum/margin.ts';
+import { formatDb, largestFinite, marginTableView } from '../../../src/ui/emissions/margin-view.ts';
+import { analyse, emissionsDesignDocument, scanNoise, syntheticScan } from '../support/emissions-fixtures.ts';
+
+const point = (marginDb: number, frequencyHz: number, conservative = false): MarginPoint => ({
+  frequencyHz,
+  levelDbuV: 50 - marginDb,
+  limitDbuV: 50,
+  marginDb,
+  series: 'line 1, predicted',
+  maskName: 'Class B, average',
+  conservative,
+});
+
+/** An analysis with a hand-made report: only the fields the table reads. */
+function withReport(report: Partial<MarginReport>, extra: Partial<EmissionsAnalysis> = {}): EmissionsAnalysis {
+  const base = analyse(emissionsDesignDocument(), scanNoise(syntheticScan({ points: 200 })));
+  return { ...base, notes: [], ...extra, report: { ...base.report, notes: [], ...report } };
+}
+
+describe('marginTableView', () => {
+  it('fails a band short of the target even when the level is under the limit, and passes the others', () => {
+    const view = marginTableView(
+      withReport({
+        targetMarginDb: 6,
+        pass: false,
+        bands: [
+          { name: '0.15–0.5 MHz', startHz: 150e3, stopHz: 500e3, worst: point(4.6, 262e3), pass: false },
+          { name: '0.5–5 MHz', startHz: 500e3, stopHz: 5e6, worst: point(-2.25, 586e3), pass: false },
+          { name: '5–30 MHz', startHz: 5e6, stopHz: 30e6, worst: point(44.9, 7.41e6), pass: true },
+          { name: 'above 30 MHz', startHz: 30e6, stopHz: 108e6, worst: undefined, pass: undefined },
+        ],
+      }),
+    );
+    expect(view.verdict).toBe('fail');
+    expect(view.verdictWord).toBe('FAIL');
+    expect(view.summary).toBe('2 bands below the 6 dB target margin.');
+    expect(view.bands.map((b) => [b.name, b.verdict, b.verdictText, b.worst?.margin, b.worst?.frequency])).toEqual([
+      ['0.15–0.5 MHz', 'fail', 'FAIL, short of the target', '4.6 dB', '262 kHz'],
+      ['0.5–5 MHz', 'fail', 'FAIL, over the limit', '-2.3 dB', '586 kHz'],
+      ['5–30 MHz', 'pass', 'PASS', '44.9 dB', '7.41 MHz'],
+      ['above 30 MHz', 'none', 'no limit here', undefined, undefined],
+    ]);
+    expect(view.bands[0]?.worst).toMatchObject({ level: '45.4 dBµV', limit: '50.0 dBµV', mask: 'Class B, average', series: 'line 1, predicted', short: true });
+    expect(view.bands[2]?.worst?.short).toBe(false);
+  });
+
+  it('passes when every band keeps the target, and says nothing was judged without a limit', () => {
+    const pass = marginTableView(withReport({ pass: true, bands: [{ name: 'all', startHz: 150e3, stopHz: 30e6, worst: point(12, 1e6), pass: true }] }));
+    expect(pass.verdict).toBe('pass');
+    expect(pass.verdictWord).toBe('PASS');
+    expect(pass.summary).toBe('Every band keeps at least the 6 dB target margin below every limit.');
+
+    const none = marginTableView(withReport({ comparisons: [], pass: false, bands: [] }));
+    expect(none.verdict).toBe('none');
+    expect(none.verdictWord).toBe('NOT JUDGED');
+  });
+
+  it('lists the worst peaks, the failing ranges and marks conservative comparisons', () => {
+    const view = marginTableView(
+      withReport({
+        worstPeaks: [point(-1, 262e3, true), point(3, 194e3)],
+        failingRanges: [{ startHz: 254e3, stopHz: 266e3, worst: point(-1, 262e3, true) }],
+      }),
+    );
+    expect(view.peaks.map((p) => [p.margin, p.frequency, p.conservative])).toEqual([
+      ['-1.0 dB', '262 kHz', true],
+      ['3.0 dB', '194 kHz', false],
+    ]);
+    expect(view.failingRanges).toEqual([{ from: '254 kHz', to: '266 kHz', worst: expect.objectContaining({ margin: '-1.0 dB' }) }]);
+    expect(view.anyConservative).toBe(true);
+  });
+
+  it('gives the attenuation still needed per mode: the most, and where', () => {
+    const f = Float64Array.of(150e3, 390e3, 1e6);
+    const view = marginTableView(
+      withReport(
+        {},
+        { frequencyHz: f, requiredAttenuationCmDb: Float64Array.of(Number.NaN, 30.24, 12), requiredAttenuationDmDb: Float64Array.of(0, 0, Number.NaN) },
+      ),
+    );
+    expect(view.required).toEqual([
+      { mode: 'common mode', most: '30.2 dB', where: 'at 390 kHz' },
+      { mode: 'differential mode', most: 'none', where: 'the level with no filter already keeps the target margin' },
+    ]);
+    const cmOnly = marginTableView(withReport({}, { requiredAttenuationDmDb: undefined }));
+    expect(cmOnly.required[1]).toEqual({ mode: 'differential mode', most: '–', where: 'the scan does not speak for this mode' });
+  });
+
+  it('collects the analysis’ notes and the report’s, each once', () => {
+    const view = marginTableView(withReport({ notes: ['b', 'a'] }, { notes: ['a', 'c'] }));
+    expect(view.notes).toEqual(['a', 'c', 'b']);
+  });
+
+  it('reads a real analysis from the worker: the scan’s notes about the baseline, the attribution and the floor', () => {
+    const analysis = analyse(emissionsDesignDocument(), scanNoise(syntheticScan()));
+    const view = marginTableView(analysis);
+    expect(view.bands.map((b) => b.name)).toEqual(['0.15–0.5 MHz', '0.5–5 MHz', '5–30 MHz']);
+    expect(view.notes.join('\n')).toMatch(/no filter fitted/u);
+    expect(view.notes.join('\n')).toMatch(/mode unknown/u);
+    expect(view.notes.join('\n')).toMatch(/noise floor \(20 dBµV\)/u);
+    expect(view.verdict).toBe(analysis.report.pass ? 'pass' : 'fail');
+  });
+});
+
+describe('formatting', () => {
+  it('prints dB with one decimal and a dash for no value', () => {
+    expect(formatDb(4.649)).toBe('4.6 dB');
+    expect(formatDb(57.94, 'dBµV')).toBe('57.9 dBµV');
+    expect(formatDb(Number.NaN)).toBe('–');
+  });
+
+  it('finds the largest finite value', () => {
+    expect(largestFinite(Float64Array.of(Number.NaN, 3, 7, 7, -1))).toEqual({ value: 7, index: 2 });
+    expect(largestFinite(Float64Array.of(Number.NaN))).toBeUndefined();
+  });
+});

@@ -1,0 +1,40 @@
+import type { ScanImporter } from '../../../src/ui/emissions/emissions-section.ts';
+import { scanImportApi, type ScanImportOptions, type ScanImportReply } from '../../../workers/scan-import-api.ts';
+
+interface PendingImport {
+  readonly text: string;
+  readonly options: ScanImportOptions | undefined;
+  readonly onProgress: ((fractionDone: number) => void) | undefined;
+  readonly resolve: (reply: ScanImportReply) => void;
+}
+
+/**
+ * Stands in for the scan-import worker client: records each import, lets the test report progress,
+ * and answers with the worker's own API run in-process.
+ */
+export class FakeScanImporter implements ScanImporter {
+  readonly pending: PendingImport[] = [];
+  readonly requested: { text: string; options: ScanImportOptions | undefined }[] = [];
+
+  importScan(text: string, options?: ScanImportOptions, onProgress?: (fractionDone: number) => void): Promise<ScanImportReply> {
+    this.requested.push({ text, options });
+    return new Promise((resolve) => this.pending.push({ text, options, onProgress, resolve }));
+  }
+
+  /** Tell the page how far the oldest open import has got. */
+  progress(fractionDone: number): void {
+    const next = this.pending[0];
+    if (!next) throw new Error('no import is running');
+    next.onProgress?.(fractionDone);
+  }
+
+  /** Answer the oldest open import as the worker would. */
+  answer(): ScanImportReply {
+    const next = this.pending.shift();
+    if (!next) throw new Error('no import is waiting for an answer');
+    const reply = scanImportApi.importScan(next.options ? { text: next.text, options: next.options } : { text: next.text });
+    if (reply.ok) next.onProgress?.(1);
+    next.resolve(reply);
+    return reply;
+  }
+}
