@@ -5,3 +5,4 @@ export { readDesign, readDesignJson, requireDesign, toValidationIssue, type Read
 export { ValidationError, formatIssue, formatPath, type ValidationIssue, type ValidationCode } from './validation-error.ts';
 export { parseQuantity, formatQuantity, type UnitSymbol } from './units.ts';
 export { DETECTORS, ATTRIBUTIONS, DEFAULT_BANDS, limitMaskSchema, type Detector, type Attribution } from './emissions-schema.ts';
+export { NOISE_SOURCE_PRESETS, type NoiseSourcePresetId } from './noise-source-presets.ts';

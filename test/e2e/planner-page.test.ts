@@ -145,7 +145,7 @@ describe('the planner page', () => {
     expect(ink.cm).toBeGreaterThan(300);
     expect(ink.dm).toBeGreaterThan(300);
 
-    const legend = await page.locator('.u-legend').innerText();
+    const legend = await page.locator('chokepoint-insertion-loss-chart .u-legend').innerText();
     for (const label of ['CM in circuit', 'CM 50 Ω/50 Ω', 'DM in circuit', 'DM 50 Ω/50 Ω']) expect(legend).toContain(label);
 
     const stages = await shadowText(page, 'chokepoint-stage-list');
@@ -169,7 +169,7 @@ describe('the planner page', () => {
     const box = await page.locator('chokepoint-insertion-loss-chart .u-over').boundingBox();
     if (!box) throw new Error('no plot area');
     await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.5);
-    const legend = await page.locator('.u-legend').innerText();
+    const legend = await page.locator('chokepoint-insertion-loss-chart .u-legend').innerText();
     expect(legend).toMatch(/\d+(\.\d+)? [kM]Hz/u);
     expect(legend).toMatch(/-?\d+\.\d dB/u);
     expect(record.consoleErrors).toEqual([]);

@@ -127,12 +127,12 @@ export function emissionsChartModel(analysis: EmissionsAnalysis, context: Emissi
       }
     }
     const alike = lines.length === 2 && sameValues(lines[0]!.values, lines[1]!.values);
-    const drawn = alike ? [{ label: 'lines 1 and 2 alike, estimate', values: lines[0]!.values }] : lines;
+    const drawn = alike ? [{ label: 'lines 1 and 2, estimate', values: lines[0]!.values }] : lines;
     drawn.forEach((line, i) => {
       series.push({
         id: `predicted-line-${i + 1}`,
         kind: 'predicted',
-        label: `${line.label}, every detector`,
+        label: `${line.label} (any detector)`,
         stroke: i === 0 ? PREDICTED_COLOURS['quasi-peak'] : PREDICTED_COLOURS.average,
         width: 1.5,
         dash: [],
@@ -301,7 +301,14 @@ export function buildEmissionsPlot(model: EmissionsChartModel, size: ChartSize, 
     height: size.height,
     legend: {
       live: true,
-      markers: { width: 2, dash: (_u, index) => ((model.series[index - 1]?.dash.length ?? 0) > 0 ? 'dashed' : 'solid') },
+      // Legend swatches drawn as line samples (see plot-element.ts): solid, dashed, or dotted for dots.
+      markers: {
+        width: (_u, index) => (model.series[index - 1]?.style === 'dots' ? 4 : 2),
+        dash: (_u, index) => {
+          const spec = model.series[index - 1];
+          return spec?.style === 'dots' ? 'dotted' : (spec?.dash.length ?? 0) > 0 ? 'dashed' : 'solid';
+        },
+      },
     },
     cursor: { drag: { x: true, y: false }, focus: { prox: 24 } },
     focus: { alpha: 0.35 },
@@ -453,7 +460,7 @@ export function buildRequiredAttenuationPlot(model: RequiredAttenuationModel, si
   const options: uPlot.Options = {
     width: size.width,
     height: size.height,
-    legend: { live: true, markers: { width: 2 } },
+    legend: { live: true, markers: { width: model.style === 'dots' ? 4 : 2, dash: model.style === 'dots' ? 'dotted' : 'solid' } },
     cursor: { drag: { x: false, y: false }, focus: { prox: 24 } },
     scales: {
       x: { distr: 3, log: 10, range: (_u, min, max) => [min ?? firstHz, max ?? lastHz] },

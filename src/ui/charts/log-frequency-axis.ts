@@ -1,5 +1,5 @@
 import type uPlot from 'uplot';
-import { frequencyTickLabels, pixelsPerDecade } from './frequency-ticks.ts';
+import { formatFrequency, frequencyTickLabels, pixelsPerDecade } from './frequency-ticks.ts';
 
 /** The look the page's charts share (the insertion-loss chart's axis colours and fonts). */
 export const AXIS_COLOUR = '#3d4652';
@@ -15,19 +15,49 @@ export interface ChartSize {
 /**
  * Tick positions on a log axis: every 1…9 × 10^k inside [min, max]. uPlot's own log splits start at
  * the scale's minimum, so an axis starting at 65 kHz would be ticked at 65, 75, … and then at odd
- * multiples such as 105 kHz and 210 kHz; these stay on the decades wherever the axis starts.
+ * multiples such as 105 kHz and 210 kHz; these stay on the decades wherever the axis starts. Zoomed
+ * in so far that fewer than four of those fall inside, the steps become 1.0, 1.1 … 9.9 × 10^k, and so on.
  */
 export function logSplits(min: number, max: number): number[] {
   if (!(min > 0 && max >= min && Number.isFinite(max))) return [];
+  let splits: number[] = [];
+  for (let digits = 0; digits <= 3; digits += 1) {
+    splits = splitsWithDigits(min, max, digits);
+    if (splits.length >= 4) break;
+  }
+  return splits;
+}
+
+/** k × 10^(e − digits) for k = 10^digits … 10^(digits+1) − 1, written so that 3 × 10^5 is exactly 300000. */
+function splitsWithDigits(min: number, max: number, digits: number): number[] {
   const splits: number[] = [];
+  const first = 10 ** digits;
   for (let exponent = Math.floor(Math.log10(min)); exponent <= Math.ceil(Math.log10(max)); exponent += 1) {
-    for (let mantissa = 1; mantissa <= 9; mantissa += 1) {
-      // mantissa × 10^k written so that 3 × 10^5 is exactly 300000, not 300000.00000000006.
-      const value = exponent >= 0 ? mantissa * 10 ** exponent : mantissa / 10 ** -exponent;
+    const power = exponent - digits;
+    for (let k = first; k < 10 * first; k += 1) {
+      const value = power >= 0 ? k * 10 ** power : k / 10 ** -power;
       if (value >= min * (1 - 1e-12) && value <= max * (1 + 1e-12)) splits.push(value);
     }
   }
   return splits;
+}
+
+/**
+ * Labels for log-axis ticks: 1, 2 and 5 (or fewer) per decade on whole mantissas, as the
+ * insertion-loss chart does; on the finer ticks of a zoomed-in axis, every tick that is at least
+ * 64 pixels from the last labelled one.
+ */
+export function logTickLabels(splits: readonly (number | null)[], min: number, pixelsPerDecadeCss: number): string[] {
+  const fine = splits.some((hz) => hz !== null && hz > 0 && Math.abs(hz / 10 ** Math.floor(Math.log10(hz) + 1e-9) - Math.round(hz / 10 ** Math.floor(Math.log10(hz) + 1e-9))) > 1e-9);
+  if (!fine) return frequencyTickLabels(splits, pixelsPerDecadeCss);
+  let lastPx = -Infinity;
+  return splits.map((hz) => {
+    if (hz === null || !(hz > 0)) return '';
+    const px = Math.log10(hz / min) * pixelsPerDecadeCss;
+    if (px - lastPx < 64) return '';
+    lastPx = px;
+    return formatFrequency(hz, 4);
+  });
 }
 
 /** The x axis of a log-frequency chart: kHz/MHz labels at 1, 2, 5 (or fewer) per decade, grid at every tick. */
@@ -49,7 +79,7 @@ export function logFrequencyAxis(firstHz: number, lastHz: number): uPlot.Axis {
       const plotWidthCss = u.bbox.width / (globalThis.devicePixelRatio || 1);
       const min = u.scales['x']?.min ?? firstHz;
       const max = u.scales['x']?.max ?? lastHz;
-      return frequencyTickLabels(splits, pixelsPerDecade(min, max, plotWidthCss));
+      return logTickLabels(splits, min, pixelsPerDecade(min, max, plotWidthCss));
     },
   };
 }

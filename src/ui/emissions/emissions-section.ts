@@ -55,9 +55,9 @@ export const TAG_TEXT: Readonly<Record<ScanTag, string>> = {
 };
 
 const ATTRIBUTION_TEXT: Readonly<Record<Attribution, string>> = {
-  both: 'the smaller of its CM and DM improvements (worst case)',
-  'common-mode': 'its CM improvement: the noise is common mode',
-  'differential-mode': 'its DM improvement: the noise is differential mode',
+  both: 'the smaller of CM and DM (worst case)',
+  'common-mode': 'its CM improvement only',
+  'differential-mode': 'its DM improvement only',
 };
 
 const FREQUENCY_CHOICES: readonly FrequencyUnit[] = ['Hz', 'kHz', 'MHz', 'GHz'];
@@ -292,6 +292,8 @@ export class EmissionsSection extends LitElement {
         max-height: 220px;
         overflow: auto;
         margin: 4px 0 0;
+        padding: 0;
+        list-style: none;
         font-family: var(--cp-mono);
         font-size: 12px;
         color: var(--cp-text);
@@ -311,7 +313,7 @@ export class EmissionsSection extends LitElement {
       .mask-name {
         font-weight: 600;
       }
-      .origin {
+      .mask-origin {
         grid-column: 1 / -1;
         font-size: 12px;
         color: var(--cp-muted);
@@ -535,6 +537,22 @@ export class EmissionsSection extends LitElement {
     void this.analyse();
   }
 
+  /**
+   * What the scan measured: used for the next file read, and applied to the scan already loaded
+   * (its columns are the same whatever they measured; only how the filter is credited changes).
+   */
+  private onScanTag(event: Event): void {
+    const value = (event.target as HTMLSelectElement).value;
+    const tag = SCAN_TAGS.find((t) => t === value);
+    if (!tag) return;
+    this.scanTag = tag;
+    const loaded = this.loaded;
+    if (loaded && loaded.scan.tag !== tag) {
+      this.loaded = { ...loaded, scan: { ...loaded.scan, tag } };
+      if (this.noiseChoice === 'scan') void this.analyse();
+    }
+  }
+
   /** Validate an edited design like a file, then hand it to the app. */
   private edit(document: unknown): boolean {
     const read = readDesign(document);
@@ -688,11 +706,7 @@ export class EmissionsSection extends LitElement {
         <div class="pair">
           <label class="field">
             <span>What the scan measured</span>
-            <select
-              name="scan-tag"
-              .value=${this.scanTag}
-              @change=${(event: Event) => (this.scanTag = (event.target as HTMLSelectElement).value as ScanTag)}
-            >
+            <select name="scan-tag" .value=${this.scanTag} @change=${this.onScanTag}>
               ${SCAN_TAGS.map((tag) => html`<option value=${tag} ?selected=${tag === this.scanTag}>${TAG_TEXT[tag]}</option>`)}
             </select>
           </label>
@@ -765,9 +779,9 @@ export class EmissionsSection extends LitElement {
     if (rejected.length === 0) return nothing;
     return html`<details class="rejected">
       <summary>${title}: ${rejected.length}</summary>
-      <ol class="lines">
-        ${rejected.map((r) => html`<li value=${r.line}>line ${r.line}: ${r.reason}</li>`)}
-      </ol>
+      <ul class="lines">
+        ${rejected.map((r) => html`<li>line ${r.line}: ${r.reason}</li>`)}
+      </ul>
     </details>`;
   }
 
@@ -854,7 +868,7 @@ export class EmissionsSection extends LitElement {
                 (mask) => html`<li data-mask=${mask.id}>
                   <span><span class="mask-name">${mask.name}</span> <span class="muted small">${mask.detector}</span></span>
                   <button type="button" class="remove" aria-label="Remove ${mask.name}" @click=${() => this.removeMask(mask.id)}>Remove</button>
-                  <span class="origin">${mask.origin ?? 'origin not given'}</span>
+                  <span class="mask-origin">${mask.origin ?? 'origin not given'}</span>
                 </li>`,
               )}
             </ul>`}

@@ -97,8 +97,16 @@ export class MarginTable extends LitElement {
       .grid {
         display: grid;
         gap: 6px 24px;
-        grid-template-columns: repeat(auto-fit, minmax(360px, 1fr));
+        grid-template-columns: repeat(auto-fit, minmax(min(360px, 100%), 1fr));
         align-items: start;
+      }
+      .grid > section {
+        min-width: 0;
+      }
+      /* On a narrow window a wide table scrolls sideways inside the panel instead of widening the page. */
+      .scroll {
+        overflow-x: auto;
+        max-width: 100%;
       }
       .required {
         display: grid;
@@ -139,6 +147,7 @@ export class MarginTable extends LitElement {
       </div>
 
       <h3>Worst margin in each band</h3>
+      <div class="scroll">
       <table class="bands">
         <thead>
           <tr>
@@ -163,13 +172,14 @@ export class MarginTable extends LitElement {
           )}
         </tbody>
       </table>
+      </div>
 
       <div class="grid">
         <section aria-labelledby="peaks-title">
           <h3 id="peaks-title">Worst peaks, lowest margin first</h3>
           ${view.peaks.length === 0
             ? html`<p class="muted small">None.</p>`
-            : html`<table class="peaks small">
+            : html`<div class="scroll"><table class="peaks small">
                 <thead>
                   <tr>
                     <th scope="col">Margin</th>
@@ -182,13 +192,13 @@ export class MarginTable extends LitElement {
                 <tbody>
                   ${view.peaks.map((peak) => html`<tr>${this.pointCells(peak)}</tr>`)}
                 </tbody>
-              </table>`}
+              </table></div>`}
         </section>
         <section aria-labelledby="ranges-title">
           <h3 id="ranges-title">Ranges short of the ${view.targetText} target</h3>
           ${view.failingRanges.length === 0
             ? html`<p class="muted small">None: the target margin is kept everywhere a limit applies.</p>`
-            : html`<table class="ranges small">
+            : html`<div class="scroll"><table class="ranges small">
                 <thead>
                   <tr>
                     <th scope="col">From</th>
@@ -209,7 +219,7 @@ export class MarginTable extends LitElement {
                     </tr>`,
                   )}
                 </tbody>
-              </table>`}
+              </table></div>`}
         </section>
       </div>
 

@@ -6,6 +6,7 @@ import { ChokepointApp } from '../../../src/ui/app/chokepoint-app.ts';
 import type { InsertionLossChart } from '../../../src/ui/charts/insertion-loss-chart.ts';
 import { syntheticSweep } from '../support/synthetic-sweep.ts';
 import { fakePlotFactory } from '../support/fake-plot.ts';
+import { FakeEmissionsClient } from '../support/fake-emissions-client.ts';
 import { FakeSweepClient } from '../support/fake-sweep-client.ts';
 
 afterEach(async () => {
@@ -192,4 +193,57 @@ describe('<chokepoint-app>', () => {
     await setHash(encodeDesignHash({ ...demo, name: 'after removal' }));
     expect(client.requested).toHaveLength(2);
   });
+
+  it('shows the emissions section for a ready design, starting from the demo’s noise estimate', async () => {
+    await setHash('');
+    const emissions = new FakeEmissionsClient();
+    const app = document.createElement('chokepoint-app');
+    app.sweepClient = new FakeSweepClient();
+    app.emissionsClient = emissions;
+    app.createPlot = fakePlotFactory().create;
+    document.body.append(app);
+    await settle(app);
+    expect(text(app, '#emissions-title')).toBe('Emissions and margin');
+    const section = app.shadowRoot?.querySelector('chokepoint-emissions');
+    expect(section?.demo).toBe(true);
+    expect(emissions.requested).toEqual([{ design: demo, noise: { kind: 'estimate' } }]);
+
+    app.showDesignFromHash('#design=abc');
+    await settle(app);
+    expect(app.shadowRoot?.querySelector('chokepoint-emissions')).toBeNull();
+  });
+
+  it('takes a design edit from the emissions section: the design changes, the sweep stands, the analysis runs again', async () => {
+    await setHash('');
+    const sweeps = new FakeSweepClient();
+    const emissions = new FakeEmissionsClient();
+    const app = document.createElement('chokepoint-app');
+    app.sweepClient = sweeps;
+    app.emissionsClient = emissions;
+    app.createPlot = fakePlotFactory().create;
+    document.body.append(app);
+    await settle(app);
+    sweeps.answer(done());
+    emissions.answer();
+    await settle(app);
+
+    const section = app.shadowRoot!.querySelector('chokepoint-emissions')!;
+    const attribution = section.shadowRoot!.querySelector<HTMLSelectElement>('select[name="attribution"]')!;
+    attribution.value = 'common-mode';
+    attribution.dispatchEvent(new Event('change'));
+    await settle(app);
+    await section.updateComplete;
+    await settle(app);
+
+    expect(sweeps.requested).toHaveLength(1);
+    expect(statusTone(app)).toBe('done');
+    expect(emissions.requested).toHaveLength(2);
+    const edited = emissions.requested[1]?.design as typeof demo;
+    expect(edited.emissions.attribution).toBe('common-mode');
+    expect(edited.stages).toEqual(demo.stages);
+    expect(section.design?.emissions?.attribution).toBe('common-mode');
+    // The demo object itself is never changed.
+    expect(demo.emissions.attribution).toBe('both');
+  });
 });
+

@@ -16,7 +16,7 @@ import {
   requiredAttenuationModel,
   sameValues,
 } from '../../../src/ui/charts/emissions-options.ts';
-import { logSplits } from '../../../src/ui/charts/log-frequency-axis.ts';
+import { logSplits, logTickLabels } from '../../../src/ui/charts/log-frequency-axis.ts';
 import { analyse, emissionsDesignDocument, scanNoise, syntheticScan } from '../support/emissions-fixtures.ts';
 
 const noPlot = {} as uPlot;
@@ -114,7 +114,7 @@ describe('emissionsChartModel, from the estimate', () => {
   it('draws a line spectrum as dots: each line once (not once per detector), and the two modes with no filter', () => {
     const predicted = model.series.filter((s) => s.kind === 'predicted');
     // The test design is balanced, so the two lines read alike and are drawn once.
-    expect(predicted.map((s) => s.label)).toEqual(['lines 1 and 2 alike, estimate, every detector']);
+    expect(predicted.map((s) => s.label)).toEqual(['lines 1 and 2, estimate (any detector)']);
     expect(model.series.filter((s) => s.kind === 'unfiltered').map((s) => s.label)).toEqual(['no filter, CM', 'no filter, DM']);
     expect(model.series.filter((s) => s.kind !== 'limit').every((s) => s.style === 'dots')).toBe(true);
     expect(model.series.filter((s) => s.kind === 'limit')).toHaveLength(2);
@@ -269,10 +269,17 @@ describe('small helpers', () => {
     expect(levelRange(min, max)).toEqual(expected);
   });
 
-  it('ticks a log axis on 1…9 × 10^k wherever it starts', () => {
+  it('ticks a log axis on 1…9 × 10^k wherever it starts, and finer when zoomed far in', () => {
     expect(logSplits(65e3, 300e3)).toEqual([7e4, 8e4, 9e4, 1e5, 2e5, 3e5]);
-    expect(logSplits(150e3, 150e3)).toEqual([]);
+    expect(logSplits(3.62e6, 4.01e6)).toEqual([3.7e6, 3.8e6, 3.9e6, 4e6]);
+    expect(logSplits(3.8012e6, 3.8052e6)).toEqual([3.802e6, 3.803e6, 3.804e6, 3.805e6]);
     expect(logSplits(0, 1)).toEqual([]);
+  });
+
+  it('labels whole-mantissa ticks at 1, 2 and 5 per decade, and finer ticks wherever there is room', () => {
+    expect(logTickLabels([1e5, 2e5, 3e5, 5e5, 1e6], 1e5, 300)).toEqual(['100 kHz', '200 kHz', '', '500 kHz', '1 MHz']);
+    expect(logTickLabels([3.7e6, 3.8e6, 3.9e6, 4e6], 3.62e6, 3000)).toEqual(['3.7 MHz', '', '3.9 MHz', '']);
+    expect(logTickLabels([3.7e6, 3.8e6, 3.9e6, 4e6], 3.62e6, 20000)).toEqual(['3.7 MHz', '3.8 MHz', '3.9 MHz', '4 MHz']);
   });
 
   it('compares columns value for value', () => {

@@ -21,17 +21,23 @@ function scanText(): string {
     const lobe = Math.abs(f * 10 - Math.round(f * 10)) < 0.03 ? 85 - 15 * Math.log10(f * 10) : 18;
     lines.push(`${f.toFixed(6)},${lobe.toFixed(2)},${(lobe - 3).toFixed(2)},${(lobe - 8).toFixed(2)}`);
     if (i === 20) lines.push('0.2,oops,1,1');
+    if (i === 150) lines.push('1.5,12,x,3');
   }
   lines.push('end of data');
   return `${lines.join('\n')}\n`;
 }
 
-const BAD_SCAN = ['Frequency [MHz],Peak [dBuV]', '0.15,abc', '0.2,', 'hello,world', '0.3,12,13,14'].join('\n');
+/** An invented file of which no line can be used. */
+const BAD_SCAN = ['# INVENTED bad scan', 'Frequency [MHz],Peak [dBuV]', '0,40.5', '-0.2,41', '0.3,abc', '0.4,', 'the end'].join('\n');
+
+function designOf(doc: unknown): NonNullable<EmissionsSection['design']> {
+  const read = readDesign(doc);
+  if (!read.ok) throw read.error;
+  return read.value;
+}
 
 async function mount(options: { document?: Record<string, unknown>; demo?: boolean; demoText?: string } = {}) {
   const doc = options.document ?? emissionsDesignDocument();
-  const read = readDesign(doc);
-  if (!read.ok) throw read.error;
   const analyzer = new FakeEmissionsClient();
   const importer = new FakeScanImporter();
   const { create, plots } = fakePlotFactory();
@@ -39,7 +45,7 @@ async function mount(options: { document?: Record<string, unknown>; demo?: boole
   const edits: unknown[] = [];
   section.addEventListener('design-edit', (event: DesignEditEvent) => edits.push(event.detail.document));
   section.document = doc;
-  section.design = read.value;
+  section.design = designOf(doc);
   section.demo = options.demo ?? false;
   section.analyzer = analyzer;
   section.scanImporter = importer;
@@ -124,8 +130,9 @@ describe('<chokepoint-emissions>', () => {
     analyzer.answer();
     await settle(section);
     await select(section, 'attribution', 'common-mode');
+    // The app takes the edit and hands the edited design back.
     section.document = edits[0];
-    section.design = readDesign(edits[0]).ok ? (readDesign(edits[0]) as { value: EmissionsSection['design'] }).value : undefined;
+    section.design = designOf(edits[0]);
     await settle(section);
     expect(analyzer.pending).toHaveLength(1);
     expect(root(section).querySelector('.stale chokepoint-plot')).not.toBeNull();
@@ -164,7 +171,7 @@ describe('<chokepoint-emissions>', () => {
     expect(text(leftOut, 'summary')).toBe('Lines left out: 2');
     expect([...(leftOut?.querySelectorAll('li') ?? [])].map((li) => li.textContent?.trim())).toEqual([
       expect.stringMatching(/^line 24: /u),
-      expect.stringMatching(/^line 204: /u),
+      expect.stringMatching(/^line 155: /u),
     ]);
 
     analyzer.answer();
@@ -173,6 +180,14 @@ describe('<chokepoint-emissions>', () => {
     expect(levelsPlot(section)?.shadowRoot?.querySelector('[data-role="plot-note"]')?.textContent).toBe(levelsPlot(section)?.note);
     expect(plots.at(-2)?.options.series.map((s) => s.label)).toContain('scan as measured, QP');
     expect(text(root(section), '.analysis-status')).toMatch(/^Predicted from the scan “bench scan\.csv”: 200 points/u);
+
+    // What the scan measured can be corrected after reading: a CM scan is credited with CM only.
+    await select(section, 'scan-tag', 'common-mode');
+    const retagged = analyzer.requested.at(-1)?.noise;
+    expect(retagged?.kind === 'scan' && retagged.scan.tag).toBe('common-mode');
+    analyzer.answer();
+    await settle(section);
+    expect(levelsPlot(section)?.note).toBeUndefined();
 
     // Back to the estimate, and to the scan again, without reading the file again.
     root(section).querySelector<HTMLInputElement>('input[value="estimate"]')!.dispatchEvent(new Event('change'));
@@ -202,10 +217,14 @@ describe('<chokepoint-emissions>', () => {
     expect(error?.getAttribute('role')).toBe('alert');
     expect(text(error, 'p')).toMatch(/^bad\.csv could not be used: /u);
     expect(text(error, 'span')).toBe('The scan shown is still good.csv. The design is unchanged.');
-    const lines = [...(error?.querySelectorAll('details.rejected li') ?? [])].map((li) => li.textContent?.trim() ?? '');
-    expect(lines.length).toBeGreaterThanOrEqual(3);
-    expect(lines[0]).toMatch(/^line 2: /u);
-    for (const line of lines) expect(line).toMatch(/^line \d+: \S/u);
+    const lines = [...(error?.querySelectorAll('details.rejected li') ?? [])].map((li) => li.textContent?.replace(/\s+/gu, ' ').trim() ?? '');
+    expect(text(error, 'details.rejected summary')).toBe('Rejected lines: 4');
+    expect(lines).toEqual([
+      'line 3: frequency must be positive, got 0',
+      'line 4: frequency must be positive, got -0.2',
+      'line 5: peak level "abc" is not a number',
+      'line 6: missing column: 1 value, expected 2 (frequency, peak)',
+    ]);
     expect(error?.querySelector('details.rejected')?.hasAttribute('open')).toBe(false);
 
     // Nothing else moved: no new analysis, no design edit, the same scan and analysis on screen.
@@ -269,7 +288,7 @@ describe('<chokepoint-emissions>', () => {
     const items = [...root(section).querySelectorAll('.masks li')];
     expect(items.map((li) => li.getAttribute('data-mask'))).toEqual(['fcc-15.107-class-b-qp', 'fcc-15.107-class-b-av']);
     expect(text(items[0], '.mask-name')).toBe('FCC Part 15 class B, quasi-peak');
-    expect(text(items[0], '.origin')).toContain('47 CFR Part 15 (FCC), §15.107');
+    expect(text(items[0], '.mask-origin')).toContain('47 CFR Part 15 (FCC), §15.107');
     expect(items[1]?.textContent).toContain('average');
 
     const add = root(section).querySelector<HTMLButtonElement>('button.add-preset')!;
@@ -311,7 +330,7 @@ describe('<chokepoint-emissions>', () => {
     const doc = emissionsDesignDocument();
     const section = document.createElement('chokepoint-emissions');
     section.document = doc;
-    section.design = readDesign(doc).ok ? (readDesign(doc) as { value: EmissionsSection['design'] }).value : undefined;
+    section.design = designOf(doc);
     document.body.append(section);
     await settle(section);
     expect(text(root(section), '.analysis-status.error')).toBe('The analysis failed: no analysis worker is connected');
