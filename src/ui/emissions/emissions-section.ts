@@ -61,10 +61,11 @@ const ATTRIBUTION_TEXT: Readonly<Record<Attribution, string>> = {
 };
 
 const FREQUENCY_CHOICES: readonly FrequencyUnit[] = ['Hz', 'kHz', 'MHz', 'GHz'];
-/** dBµA is left out: it needs a current probe's transfer impedance, which this form does not ask for. */
+/** dBµA (a current probe's reading) also asks for the probe's transfer impedance. */
 const LEVEL_CHOICES: readonly { value: LevelUnitName; text: string }[] = [
   { value: 'dBuV', text: 'dBµV' },
   { value: 'dBm', text: 'dBm (50 Ω)' },
+  { value: 'dBuA', text: 'dBµA (current probe)' },
   { value: 'dBV', text: 'dBV' },
   { value: 'V', text: 'V' },
 ];
@@ -367,6 +368,8 @@ export class EmissionsSection extends LitElement {
   @state() private scanTag: ScanTag = 'line1';
   @state() private frequencyUnit: FrequencyUnit | undefined;
   @state() private levelUnit: LevelUnitName | undefined;
+  /** The current probe's transfer impedance, Ω, for levels in dBµA. */
+  @state() private transferImpedanceOhm: number | undefined;
   @state() private analysisState: AnalysisState = { kind: 'idle', reason: 'No design.' };
   @state() private shown: Shown | undefined;
   @state() private marginError: string | undefined;
@@ -521,6 +524,7 @@ export class EmissionsSection extends LitElement {
       tag: this.scanTag,
       ...(this.frequencyUnit ? { frequencyUnit: this.frequencyUnit } : {}),
       ...(this.levelUnit ? { levelUnit: this.levelUnit } : {}),
+      ...(this.transferImpedanceOhm !== undefined ? { transferImpedanceOhm: this.transferImpedanceOhm } : {}),
     };
     this.importState = { kind: 'reading', fileName, fractionDone: 0 };
     const reply = await importer.importScan(text, options, (fractionDone) => {
@@ -731,6 +735,21 @@ export class EmissionsSection extends LitElement {
               <option value="" ?selected=${this.levelUnit === undefined}>dBµV (assumed)</option>
               ${LEVEL_CHOICES.map((choice) => html`<option value=${choice.value} ?selected=${choice.value === this.levelUnit}>${choice.text}</option>`)}
             </select>
+          </label>
+          <label class="field">
+            <span>Probe transfer impedance, for dBµA</span>
+            <input
+              type="number"
+              name="transfer-impedance"
+              min="0"
+              step="any"
+              placeholder="Ω"
+              .value=${this.transferImpedanceOhm === undefined ? '' : String(this.transferImpedanceOhm)}
+              @change=${(event: Event) => {
+                const value = Number((event.target as HTMLInputElement).value);
+                this.transferImpedanceOhm = (event.target as HTMLInputElement).value !== '' && value > 0 ? value : undefined;
+              }}
+            />
           </label>
         </div>
         <div class="load">

@@ -141,6 +141,19 @@ describe('<chokepoint-emissions>', () => {
     expect(root(section).querySelector('.stale')).not.toBeNull();
   });
 
+  it('levels in dBµA go to the reader with the probe transfer impedance typed on the form', async () => {
+    const { section, analyzer, importer } = await mount();
+    analyzer.answer();
+    await settle(section);
+    await select(section, 'level-unit', 'dBuA');
+    const impedance = root(section).querySelector<HTMLInputElement>('input[name="transfer-impedance"]')!;
+    impedance.value = '5';
+    impedance.dispatchEvent(new Event('change'));
+    await settle(section);
+    await chooseFile(section, 'probe.csv', scanText());
+    expect(importer.requested[0]?.options).toMatchObject({ levelUnit: 'dBuA', transferImpedanceOhm: 5 });
+  });
+
   it('reads a chosen scan file in the worker with a progress bar, then judges the scan, noting the attribution on the plot', async () => {
     const { section, analyzer, importer, plots } = await mount();
     analyzer.answer();
