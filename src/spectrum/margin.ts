@@ -149,6 +149,9 @@ export function marginReport(series: readonly LevelSeries[], masks: readonly Lim
     ...band,
     worst: undefined,
   }));
+  // The worst peaks, kept sorted and bounded as they are found: a noisy million-point scan has
+  // hundreds of thousands of local minima, and none of the others is ever shown.
+  const peakCount = options.worstPeakCount ?? 10;
   const peaks: MarginPoint[] = [];
   const failingRanges: FailingRange[] = [];
 
@@ -165,19 +168,24 @@ export function marginReport(series: readonly LevelSeries[], masks: readonly Lim
         rangeWorst = undefined;
         continue;
       }
-      const point = (): MarginPoint => pointOf(c, level, i);
-      if (!worst || margin < worst.marginDb) worst = point();
+      if (!worst || margin < worst.marginDb) worst = pointOf(c, level, i);
       const f = c.frequencyHz[i]!;
-      bands.forEach((band, b) => {
-        if (f >= band.startHz && f <= band.stopHz && (!band.worst || margin < band.worst.marginDb)) bands[b] = { ...band, worst: point() };
-      });
+      for (const band of bands) {
+        if (f >= band.startHz && f <= band.stopHz && (!band.worst || margin < band.worst.marginDb)) band.worst = pointOf(c, level, i);
+      }
       // A local minimum of margin: a peak of the level against its limit.
       const before = i > 0 ? m[i - 1]! : Number.POSITIVE_INFINITY;
       const after = i + 1 < m.length ? m[i + 1]! : Number.POSITIVE_INFINITY;
-      if (margin <= (Number.isNaN(before) ? Infinity : before) && margin < (Number.isNaN(after) ? Infinity : after)) peaks.push(point());
+      const isPeak = margin <= (Number.isNaN(before) ? Infinity : before) && margin < (Number.isNaN(after) ? Infinity : after);
+      if (isPeak && (peaks.length < peakCount || margin < peaks[peaks.length - 1]!.marginDb)) {
+        let at = peaks.length;
+        while (at > 0 && peaks[at - 1]!.marginDb > margin) at -= 1;
+        peaks.splice(at, 0, pointOf(c, level, i));
+        if (peaks.length > peakCount) peaks.pop();
+      }
       if (margin < target) {
         if (rangeStart < 0) rangeStart = i;
-        if (!rangeWorst || margin < rangeWorst.marginDb) rangeWorst = point();
+        if (!rangeWorst || margin < rangeWorst.marginDb) rangeWorst = pointOf(c, level, i);
       } else if (rangeStart >= 0 && rangeWorst) {
         failingRanges.push({ startHz: c.frequencyHz[rangeStart]!, stopHz: c.frequencyHz[i - 1]!, worst: rangeWorst });
         rangeStart = -1;
@@ -188,7 +196,6 @@ export function marginReport(series: readonly LevelSeries[], masks: readonly Lim
   }
 
   const judged: BandResult[] = bands.map((band) => ({ ...band, pass: band.worst === undefined ? undefined : band.worst.marginDb >= target }));
-  peaks.sort((a, b) => a.marginDb - b.marginDb);
   failingRanges.sort((a, b) => a.startHz - b.startHz);
   if (comparisons.length === 0) notes.push('no mask could be applied: nothing was judged');
   return {
@@ -196,7 +203,7 @@ export function marginReport(series: readonly LevelSeries[], masks: readonly Lim
     comparisons,
     worst,
     bands: judged,
-    worstPeaks: peaks.slice(0, options.worstPeakCount ?? 10),
+    worstPeaks: peaks,
     failingRanges,
     pass: comparisons.length > 0 && judged.every((band) => band.pass !== false),
     notes,

@@ -151,8 +151,11 @@ export function predictScan(design: Design, scan: Scan, options: PredictionOptio
   const floor = options.noiseFloorDbuV;
   if (floor !== undefined) {
     let count = 0;
+    const columns = scan.traces.map((trace) => trace.levelDbuV);
     for (let i = 0; i < n; i += 1) {
-      if (scan.traces.every((trace) => trace.levelDbuV[i]! <= floor)) {
+      let quiet = true;
+      for (const column of columns) if (column[i]! > floor) quiet = false;
+      if (quiet) {
         belowFloor[i] = 1;
         count += 1;
       }
