@@ -2,8 +2,9 @@ import js from '@eslint/js';
 import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
-// Dependency direction (DEVELOPERS.md, "Layers"): model <- engine <- workers; model <- io;
-// engine, io <- cli; model, io, client <- ui. Nothing imports ui or cli.
+// Dependency direction (DEVELOPERS.md, "Layers"): model <- engine <- spectrum <- assist, safety;
+// model <- io; model <- drawing; everything pure <- report <- cli and workers; model, io, planner,
+// drawing, client <- ui. Nothing imports ui or cli. The pure layers use neither the DOM nor Node.
 const restrict = (...groups) => ({
   'no-restricted-imports': ['error', { patterns: groups.map((group) => ({ group: [group], message: 'breaks the layer rules in DEVELOPERS.md' })) }],
 });
@@ -25,16 +26,29 @@ export default tseslint.config(
   { files: ['src/engine/**'], rules: restrict('**/io/**', '**/ui/**', '**/cli/**', '**/client/**', 'lit', 'uplot', 'comlink', 'node:*') },
   { files: ['src/spectrum/**'], rules: restrict('**/ui/**', '**/cli/**', '**/client/**', 'lit', 'uplot', 'comlink', 'node:*') },
   { files: ['src/io/**'], rules: restrict('**/ui/**', '**/cli/**', '**/client/**', 'lit', 'uplot', 'comlink', 'node:*') },
+  { files: ['src/drawing/**'], rules: restrict('**/ui/**', '**/cli/**', '**/client/**', '**/planner/**', 'lit', 'uplot', 'comlink', 'node:*') },
+  { files: ['src/assist/**', 'src/safety/**'], rules: restrict('**/ui/**', '**/cli/**', '**/client/**', '**/planner/**', '**/report/**', 'lit', 'uplot', 'comlink', 'node:*') },
+  { files: ['src/report/**'], rules: restrict('**/ui/**', '**/cli/**', '**/client/**', '**/planner/**', 'lit', 'uplot', 'comlink', 'node:*') },
+  { files: ['src/planner/**'], rules: restrict('**/ui/**', '**/cli/**', '**/client/**', 'lit', 'uplot', 'comlink', 'node:*') },
   { files: ['src/client/**'], rules: restrict('**/ui/**', '**/cli/**', 'lit', 'uplot', 'node:*') },
   { files: ['src/cli/**'], rules: restrict('**/ui/**', '**/client/**', 'lit', 'uplot', 'comlink') },
   { files: ['src/ui/**'], rules: restrict('**/cli/**', 'node:*') },
-  // The UI renders numbers that arrive from the worker; it may name engine types, never run the engine.
+  // The UI renders numbers that arrive from the worker; it may name engine types, never run the engine
+  // (nor the assistants, the safety checks or the report builder, which run in workers too).
   {
-    files: ['src/ui/**', 'src/client/**'],
+    files: ['src/ui/**', 'src/client/**', 'src/planner/**'],
     rules: {
       '@typescript-eslint/no-restricted-imports': [
         'error',
-        { patterns: [{ group: ['**/engine/**'], allowTypeImports: true, message: 'the UI imports engine types only; numbers come from the worker' }] },
+        {
+          patterns: [
+            {
+              group: ['**/engine/**', '**/assist/**', '**/safety/**', '**/report/**'],
+              allowTypeImports: true,
+              message: 'the page imports types only from the number layers; numbers come from the worker',
+            },
+          ],
+        },
       ],
     },
   },

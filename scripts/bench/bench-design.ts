@@ -7,7 +7,7 @@ import type { DesignInput } from '../../src/model/design.ts';
  */
 export const BENCH_DESIGN: DesignInput = {
   format: 'chokepoint-design',
-  version: 1,
+  version: 2,
   name: 'Benchmark: invented two-stage filter, ten elements',
   frequencyPlan: { startHz: 1e4, stopHz: 1e8, pointsPerDecade: 500 },
   noiseSource: {

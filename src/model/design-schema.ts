@@ -3,13 +3,13 @@ import { emissionsFields } from './emissions-schema.ts';
 import { optionalQuantity, quantity, quantityOr } from './quantity-field.ts';
 
 /**
- * The design file, version 1. Every physical value is SI (H, F, Ω, Hz, V, A) when written as a
+ * The design file, version 2. Every physical value is SI (H, F, Ω, Hz, V, A) when written as a
  * number, or engineering text ("4.7 mH") when written as a string. Parasitics are optional and
  * zero by default. docs/design-format.md documents every field; a test keeps the two in step.
  */
 
 export const DESIGN_FORMAT = 'chokepoint-design';
-export const DESIGN_VERSION = 1;
+export const DESIGN_VERSION = 2;
 
 const identifier = z
   .string()

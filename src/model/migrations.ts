@@ -4,10 +4,17 @@ import { ValidationError } from './validation-error.ts';
 type Migration = (older: Record<string, unknown>) => Record<string, unknown>;
 
 /**
- * MIGRATIONS[v] turns a version-v document into version v + 1. Version 1 is the first format, so
- * the list is empty; when version 2 arrives, its step goes here and old files keep opening.
+ * MIGRATIONS[v] turns a version-v document into version v + 1, so files of every earlier version
+ * keep opening. Each step is a pure function of the document and says what changed.
  */
-const MIGRATIONS: Readonly<Record<number, Migration>> = {};
+const MIGRATIONS: Readonly<Record<number, Migration>> = {
+  /**
+   * 1 → 2: version 2 only adds optional fields (layout coupling, part models, operating conditions,
+   * tolerances, safety inputs; docs/design-format.md lists them). Every version-1 document means
+   * the same in version 2, so the step changes nothing but the number.
+   */
+  1: (older) => ({ ...older }),
+};
 
 export function migrateDesign(
   document: Record<string, unknown>,

@@ -67,7 +67,7 @@ async function printed(argv: string[], files: Record<string, string> = {}): Prom
 function designAround(element: unknown): unknown {
   return {
     format: 'chokepoint-design',
-    version: 1,
+    version: 2,
     name: 'test: a measured part from the command line',
     frequencyPlan: { startHz: '100 kHz', stopHz: '100 MHz', pointsPerDecade: 20 },
     noiseSource: {

@@ -232,7 +232,7 @@ describe('bad input exits 2 with a message that names the problem', () => {
   });
 
   it('a design file that is not JSON, located by line and column', async () => {
-    const broken = demoText.replace('"version": 1,', '"version": 1');
+    const broken = demoText.replace('"version": 2,', '"version": 2');
     const message = await refused(['sweep', 'broken.json'], { 'broken.json': broken });
     expect(message).toMatch(/^chokepoint: broken\.json is not valid JSON: line 4, column 3: expected "," or "\}" after a property value, found "\\""\n/u);
     expect(message).toContain('\n    "name": "Invented demo');

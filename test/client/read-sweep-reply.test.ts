@@ -5,7 +5,7 @@ import type { SweepSuccess } from '../../workers/sweep-protocol.ts';
 
 const design = {
   format: 'chokepoint-design',
-  version: 1,
+  version: 2,
   name: 'tiny',
   frequencyPlan: { startHz: 1e5, stopHz: 1e6, pointsPerDecade: 5 },
   noiseSource: {

@@ -43,7 +43,7 @@ function track(promise: Promise<SweepOutcome>): { outcome: SweepOutcome | undefi
 
 const design = {
   format: 'chokepoint-design',
-  version: 1,
+  version: 2,
   name: 'tiny',
   frequencyPlan: { startHz: 1e5, stopHz: 1e6, pointsPerDecade: 5 },
   noiseSource: {

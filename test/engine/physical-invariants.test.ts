@@ -37,7 +37,7 @@ const SYSTEMS: readonly ResistiveSystem[] = [
 function designInput(stages: ElementNoId[][], line1: DesignInput['receivers']['line1'], line2: DesignInput['receivers']['line2'], cm: TwoTerminalInput, dm: TwoTerminalInput): DesignInput {
   return {
     format: 'chokepoint-design',
-    version: 1,
+    version: 2,
     name: 'property design',
     noiseSource: { commonMode: { impedance: cm }, differentialMode: { impedance: dm } },
     receivers: { line1, line2 },

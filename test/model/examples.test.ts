@@ -41,7 +41,7 @@ describe('design files in fixtures/', () => {
   it.each(files)('%s reads without error', (path) => {
     const design = read(path);
     expect(design.format).toBe('chokepoint-design');
-    expect(design.version).toBe(1);
+    expect(design.version).toBe(2);
   });
 });
 

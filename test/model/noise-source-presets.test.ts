@@ -4,7 +4,7 @@ import { readDesign } from '../../src/model/read-design.ts';
 
 const designWith = (commonMode: unknown, differentialMode: unknown): unknown => ({
   format: 'chokepoint-design',
-  version: 1,
+  version: 2,
   name: 'presets',
   noiseSource: { commonMode, differentialMode },
   receivers: { line1: { kind: 'cispr16-mains-50uh' }, line2: { kind: 'cispr16-mains-50uh' } },

@@ -296,7 +296,7 @@ describe('sources and axes', () => {
   it('an estimate read from a design file (engineering text) predicts the same as the numbers', () => {
     const design = requireDesign({
       format: 'chokepoint-design',
-      version: 1,
+      version: 2,
       name: 'estimate from text',
       noiseSource: {
         commonMode: { impedance: { kind: 'resistor', resistance: 50 } },

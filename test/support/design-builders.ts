@@ -18,7 +18,7 @@ export function buildDesign(options: {
 }): Design {
   return requireDesign({
     format: 'chokepoint-design',
-    version: 1,
+    version: 2,
     name: 'test design',
     frequencyPlan: options.frequencyPlan,
     noiseSource: {

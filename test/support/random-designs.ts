@@ -125,7 +125,7 @@ export const randomDesign: fc.Arbitrary<DesignInput> = fc
   })
   .map(({ stages, line1, line2, commonMode, differentialMode }) => ({
     format: 'chokepoint-design' as const,
-    version: 1 as const,
+    version: 2 as const,
     name: 'random design',
     noiseSource: { commonMode: { impedance: commonMode }, differentialMode: { impedance: differentialMode } },
     receivers: { line1, line2 },

@@ -16,7 +16,7 @@ function expectSuccess(reply: SweepReply): SweepSuccess {
 
 const smallDesign = {
   format: 'chokepoint-design',
-  version: 1,
+  version: 2,
   name: 'one X capacitor',
   frequencyPlan: { startHz: '150 kHz', stopHz: '30 MHz', pointsPerDecade: 20 },
   noiseSource: {

@@ -165,7 +165,7 @@ function designIssues(element: unknown): readonly ValidationIssue[] {
   const id = (element as { id?: unknown }).id;
   const design = {
     format: 'chokepoint-design',
-    version: 1,
+    version: 2,
     name: 'measured part check',
     noiseSource: {
       commonMode: { impedance: { kind: 'resistor', resistance: 50 } },

@@ -14,7 +14,7 @@ import { sweepApi } from '../../../workers/sweep-api.ts';
 export function emissionsDesignDocument(emissions: Record<string, unknown> = {}): Record<string, unknown> {
   return {
     format: 'chokepoint-design',
-    version: 1,
+    version: 2,
     name: 'Test adapter, one LC stage',
     frequencyPlan: { startHz: '150 kHz', stopHz: '30 MHz', pointsPerDecade: 40 },
     noiseSource: {
