@@ -268,6 +268,41 @@ export const emissionsSchema = z
     }
   });
 
+/**
+ * The conditions the product runs under (version 2): the supply, the line current at full load and
+ * the converter behind the filter. The filter's response does not depend on them; the safety checks
+ * (leakage current, discharge, voltage stress, copper loss, saturation) and the stability assistant
+ * read them. Absent until the user gives them; never guessed.
+ */
+export const supplySchema = z.discriminatedUnion('kind', [
+  z.strictObject({
+    kind: z.literal('ac-mains'),
+    /** The highest rated line voltage, rms, line to neutral (e.g. 264 V for a 100–240 V product with +10 %). */
+    highestVoltage: quantity('V'),
+    /** The highest rated line frequency (60 Hz for a 50/60 Hz product). */
+    highestFrequencyHz: quantity('Hz'),
+  }),
+  z.strictObject({
+    kind: z.literal('dc'),
+    /** The highest DC input voltage. */
+    highestVoltage: quantity('V'),
+  }),
+]);
+
+export const converterSchema = z.strictObject({
+  /** The lowest input voltage at which the converter still delivers full power. */
+  lowestInputVoltage: quantity('V'),
+  /** The converter's highest input power. */
+  highestInputPower: quantity('W'),
+});
+
+export const operatingSchema = z.strictObject({
+  supply: supplySchema.optional(),
+  /** The rms line current at full load, through every series part. */
+  lineCurrent: optionalQuantity('A'),
+  converter: converterSchema.optional(),
+});
+
 export const MAX_SWEEP_POINTS = 1_000_000;
 
 export const frequencyPlanSchema = z
@@ -304,6 +339,8 @@ export const designSchema = z
     stages: z.array(stageSchema).max(32),
     /** Limits, margin, bands, scan attribution, baseline and noise estimate; absent until used. */
     emissions: emissionsSchema.optional(),
+    /** Supply, line current and converter (version 2); absent until used. */
+    operating: operatingSchema.optional(),
   })
   .superRefine((design, ctx) => {
     const seen = new Map<string, string>();

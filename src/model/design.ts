@@ -20,6 +20,9 @@ import type {
   twoTerminalSchema,
   emissionsSchema,
   baselineSchema,
+  converterSchema,
+  operatingSchema,
+  supplySchema,
 } from './design-schema.ts';
 import type { limitMaskSchema, noiseEstimateSchema, bandSchema, trapezoidSchema } from './emissions-schema.ts';
 
@@ -48,6 +51,9 @@ export type FrequencyPlan = z.output<typeof frequencyPlanSchema>;
 export type PartKind = Part['kind'];
 export type Emissions = z.output<typeof emissionsSchema>;
 export type Baseline = z.output<typeof baselineSchema>;
+export type Operating = z.output<typeof operatingSchema>;
+export type Supply = z.output<typeof supplySchema>;
+export type Converter = z.output<typeof converterSchema>;
 export type LimitMask = z.output<typeof limitMaskSchema>;
 export type LimitMaskInput = z.input<typeof limitMaskSchema>;
 export type NoiseEstimate = z.output<typeof noiseEstimateSchema>;

@@ -361,7 +361,7 @@ describe('docs/design-format.md documents the design schema', () => {
         'capacitor', 'inductor', 'resistor', 'ferrite-bead', 'damping-rc', 'damping-rl', 'measured', 'common-mode-choke',
         'none', 'parallel-resistance', 'quality-factor', 'constant', 'first-order-relaxation', 'leakage-inductance',
         'coupling-factor', 'cispr16-mains-50uh', 'vehicle-5uh', 'resistive', 'custom',
-        'stages', 'pulsed', 'triangular-ripple',
+        'stages', 'pulsed', 'triangular-ripple', 'ac-mains', 'dc',
       ]),
     );
     expect(schema.choices.get('placement')).toEqual(new Set(PLACEMENTS));
