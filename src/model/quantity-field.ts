@@ -53,9 +53,25 @@ function readQuantity(input: unknown, unit: UnitSymbol, rule: QuantityRule, ctx:
   return value;
 }
 
+/** What a quantity field reads: its SI unit and the values it allows. */
+export interface QuantityInfo {
+  readonly unit: UnitSymbol;
+  readonly rule: QuantityRule;
+}
+
+// quantity() schemas are transforms, which zod cannot describe; editors and docs look them up here.
+const QUANTITY_INFO = new WeakMap<object, QuantityInfo>();
+
+/** The unit and rule of a schema made by quantity(), or undefined for any other schema. */
+export function quantityInfo(schema: z.core.$ZodType): QuantityInfo | undefined {
+  return QUANTITY_INFO.get(schema);
+}
+
 /** A required physical field. */
 export function quantity(unit: UnitSymbol, rule: QuantityRule = 'positive') {
-  return z.unknown().transform((input, ctx) => readQuantity(input, unit, rule, ctx));
+  const schema = z.unknown().transform((input, ctx) => readQuantity(input, unit, rule, ctx));
+  QUANTITY_INFO.set(schema, { unit, rule });
+  return schema;
 }
 
 /** An optional physical field that reads as `fallback` when absent (parasitics default to zero). */
