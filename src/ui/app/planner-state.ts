@@ -3,7 +3,7 @@ import type { SweepResult } from '../../engine/index.ts';
 import { readDesignHash } from '../../io/design-url.ts';
 import type { Design } from '../../model/design.ts';
 import { formatIssue, readDesign, ValidationError } from '../../model/index.ts';
-import { formatFrequency } from '../charts/frequency-ticks.ts';
+import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 
 /** Where the design on screen came from: the built-in invented demo, or a link's #design=. */
 export type DesignOrigin = 'demo' | 'link';

@@ -3,7 +3,7 @@ import type { Detector } from '../../model/emissions-schema.ts';
 import type { EmissionsAnalysis } from '../../spectrum/emissions-analysis.ts';
 import type { MarginPoint } from '../../spectrum/margin.ts';
 import { decimateLogMaxHold, type Reduce } from './decimate.ts';
-import { formatFrequency } from './frequency-ticks.ts';
+import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 import { columnExtent } from './insertion-loss-options.ts';
 import { MODE_COLOURS } from './insertion-loss-series.ts';
 import { type ChartSize, dbAxis, logFrequencyAxis, pixelRatio } from './log-frequency-axis.ts';

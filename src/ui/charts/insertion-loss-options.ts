@@ -1,7 +1,7 @@
 import type uPlot from 'uplot';
 import type { SweepResult } from '../../engine/index.ts';
 import { overlayPlugin } from './chart-overlays.ts';
-import { formatFrequency, frequencyTickLabels, pixelsPerDecade } from './frequency-ticks.ts';
+import { formatFrequency, frequencyTickLabels, pixelsPerDecade } from '../../drawing/frequency-ticks.ts';
 import { INSERTION_LOSS_SERIES } from './insertion-loss-series.ts';
 import { resonanceNotes } from './resonance-marks.ts';
 

@@ -1,5 +1,5 @@
 import type uPlot from 'uplot';
-import { formatFrequency, frequencyTickLabels, pixelsPerDecade } from './frequency-ticks.ts';
+import { formatFrequency, frequencyTickLabels, logSplits, pixelsPerDecade } from '../../drawing/frequency-ticks.ts';
 
 /** The look the page's charts share (the insertion-loss chart's axis colours and fonts). */
 export const AXIS_COLOUR = '#3d4652';
@@ -12,35 +12,6 @@ export interface ChartSize {
   readonly height: number;
 }
 
-/**
- * Tick positions on a log axis: every 1…9 × 10^k inside [min, max]. uPlot's own log splits start at
- * the scale's minimum, so an axis starting at 65 kHz would be ticked at 65, 75, … and then at odd
- * multiples such as 105 kHz and 210 kHz; these stay on the decades wherever the axis starts. Zoomed
- * in so far that fewer than four of those fall inside, the steps become 1.0, 1.1 … 9.9 × 10^k, and so on.
- */
-export function logSplits(min: number, max: number): number[] {
-  if (!(min > 0 && max >= min && Number.isFinite(max))) return [];
-  let splits: number[] = [];
-  for (let digits = 0; digits <= 3; digits += 1) {
-    splits = splitsWithDigits(min, max, digits);
-    if (splits.length >= 4) break;
-  }
-  return splits;
-}
-
-/** k × 10^(e − digits) for k = 10^digits … 10^(digits+1) − 1, written so that 3 × 10^5 is exactly 300000. */
-function splitsWithDigits(min: number, max: number, digits: number): number[] {
-  const splits: number[] = [];
-  const first = 10 ** digits;
-  for (let exponent = Math.floor(Math.log10(min)); exponent <= Math.ceil(Math.log10(max)); exponent += 1) {
-    const power = exponent - digits;
-    for (let k = first; k < 10 * first; k += 1) {
-      const value = power >= 0 ? k * 10 ** power : k / 10 ** -power;
-      if (value >= min * (1 - 1e-12) && value <= max * (1 + 1e-12)) splits.push(value);
-    }
-  }
-  return splits;
-}
 
 /**
  * Labels for log-axis ticks: 1, 2 and 5 (or fewer) per decade on whole mantissas, as the

@@ -21,7 +21,7 @@ import {
   emissionsChartModel,
   requiredAttenuationModel,
 } from '../charts/emissions-options.ts';
-import { formatFrequency } from '../charts/frequency-ticks.ts';
+import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 import type { PlotSource } from '../charts/plot-controller.ts';
 import '../charts/plot-element.ts';
 import { sharedStyles } from '../styles/theme.ts';

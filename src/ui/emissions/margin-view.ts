@@ -1,6 +1,6 @@
 import type { EmissionsAnalysis } from '../../spectrum/emissions-analysis.ts';
 import type { MarginPoint } from '../../spectrum/margin.ts';
-import { formatFrequency } from '../charts/frequency-ticks.ts';
+import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 
 /**
  * The margin table as the page shows it: text for every cell, taken from the worker's margin report.

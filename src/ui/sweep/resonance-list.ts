@@ -2,7 +2,7 @@ import { css, html, LitElement, nothing, unsafeCSS } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { SweepResult } from '../../engine/index.ts';
 import { OVERLAY_COLOURS } from '../charts/chart-overlays.ts';
-import { formatFrequency } from '../charts/frequency-ticks.ts';
+import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 import { type ResonanceNote, resonanceNotes } from '../charts/resonance-marks.ts';
 import { sharedStyles } from '../styles/theme.ts';
 

@@ -16,7 +16,8 @@ import {
   requiredAttenuationModel,
   sameValues,
 } from '../../../src/ui/charts/emissions-options.ts';
-import { logSplits, logTickLabels } from '../../../src/ui/charts/log-frequency-axis.ts';
+import { logTickLabels } from '../../../src/ui/charts/log-frequency-axis.ts';
+import { logSplits } from '../../../src/drawing/frequency-ticks.ts';
 import { analyse, emissionsDesignDocument, scanNoise, syntheticScan } from '../support/emissions-fixtures.ts';
 
 const noPlot = {} as uPlot;

@@ -2,7 +2,7 @@
 // The options builder is pure: it must build without a DOM, so this file runs in plain Node.
 import type uPlot from 'uplot';
 import { describe, expect, it } from 'vitest';
-import { frequencyTickLabels, pixelsPerDecade } from '../../../src/ui/charts/frequency-ticks.ts';
+import { frequencyTickLabels, pixelsPerDecade } from '../../../src/drawing/frequency-ticks.ts';
 import {
   buildInsertionLossPlot,
   columnExtent,
