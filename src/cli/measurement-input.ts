@@ -2,11 +2,12 @@ import { parseDecimal } from '../io/decimal-number.ts';
 import type { FrequencyUnit } from '../io/frequency-unit.ts';
 import { measuredPartFromTable, readImpedanceTableCsv } from '../io/impedance-table-csv.ts';
 import { type LineIssue, splitLines, type TextReadResult } from '../io/text-issues.ts';
-import { impedanceFromThru, measuredPartFromThru, readTouchstoneTwoPort, type ThruFixture } from '../io/touchstone.ts';
+import { impedanceFromNetwork, type MeasurementFixture, measuredPartFromNetwork } from '../io/touchstone.ts';
+import { readTouchstone } from '../io/touchstone-network.ts';
 import type { MeasuredImpedance } from '../model/index.ts';
 
 /**
- * A measurement file on its way into a design: a |Z|/phase table or a Touchstone two-port, read
+ * A measurement file on its way into a design: a |Z|/phase table or a Touchstone file, read
  * by the io readers. The readers refuse a whole file for one bad line; here a bad data line is left
  * out and reported instead, and the file is refused only when no usable table remains (docs/cli.md,
  * `measured-part`).
@@ -17,11 +18,11 @@ export type MeasurementKind = 'impedance-table' | 'touchstone';
 /** The most lines left out before a file is taken as not a table at all (the readers stop listing at 200). */
 export const MAX_REJECTED_LINES = 199;
 
-const TOUCHSTONE_EXTENSION = /\.s\d+p$/iu;
+const TOUCHSTONE_EXTENSION = /\.(?:[syz]\d+p|ts)$/iu;
 const OPTION_WORDS = new Set(['hz', 'khz', 'mhz', 'ghz', 's', 'y', 'z', 'h', 'g', 'ri', 'ma', 'db', 'r']);
 
 /**
- * Touchstone when the name ends in .s<n>p, or when the first line that is not a comment or blank is a
+ * Touchstone when the name ends in .s<n>p (.y<n>p, .z<n>p) or .ts, or when the first line that is not a comment or blank is a
  * Touchstone option line ("# MHz S DB R 50") or a Touchstone 2 keyword ("[Version] 2.0"); a |Z| table
  * otherwise. Table files use "#" for comments too, so a "#" line counts only when it holds option words.
  */
@@ -52,8 +53,8 @@ export interface MeasurementReadOptions {
   readonly path: string;
   /** Tables only: the frequency unit when the header names none. */
   readonly frequencyUnit?: FrequencyUnit;
-  /** Touchstone only, required there. */
-  readonly fixture?: ThruFixture;
+  /** Touchstone only: how the part was connected; a one-port file needs none (it is a reflection). */
+  readonly fixture?: MeasurementFixture;
   /** Refuse the file for any rejected line instead of leaving the line out. */
   readonly strict?: boolean;
 }
@@ -112,12 +113,18 @@ function readPart(text: string, options: MeasurementReadOptions): TextReadResult
     if (!read.ok) return read;
     return { ok: true, value: measuredPartFromTable(read.value.table, fileName), notes: read.notes };
   }
-  if (options.fixture === undefined) throw new Error('a Touchstone file is read with a fixture');
-  const data = readTouchstoneTwoPort(text, { fileName: options.path });
+  const data = readTouchstone(text, { fileName: options.path });
   if (!data.ok) return data;
-  const converted = impedanceFromThru(data.value, options.fixture);
+  const fixture = options.fixture ?? (data.value.ports === 1 ? 'reflection' : undefined);
+  if (fixture === undefined) {
+    return {
+      ok: false,
+      issues: [{ line: 0, message: `a ${data.value.ports}-port file: say how the part was connected with --fixture series-thru or --fixture shunt-thru` }],
+    };
+  }
+  const converted = impedanceFromNetwork(data.value, fixture);
   if (!converted.ok) return converted;
-  return { ok: true, value: measuredPartFromThru(converted.value, fileName), notes: [...data.notes, ...converted.notes] };
+  return { ok: true, value: measuredPartFromNetwork(converted.value, fileName), notes: [...data.notes, ...converted.notes] };
 }
 
 /** The last part of a path, short enough for `origin.fileName` (260 characters at most). */
@@ -156,16 +163,27 @@ function looksLikeData(line: string): boolean {
 }
 
 /**
- * A Touchstone line may be left out when it holds a whole record: nine fields on one line (the
- * frequency and four pairs). A record wrapped over lines is never split up, so leaving a line out
- * can never join one record's frequency to another's numbers; the option line is never dropped.
+ * A Touchstone line may be left out when it holds a whole record: as many fields as most one-line
+ * records of the file have (3 for a one-port, 9 for a two-port). A record wrapped over lines is never
+ * split up, so leaving a line out can never join one record's frequency to another's numbers; option
+ * lines and keyword lines are never dropped.
  */
 function touchstoneDataLine(lines: readonly string[]): (line: number) => boolean {
-  return (line) => {
+  const fieldCount = (line: number): number | undefined => {
     const content = (lines[line - 1] ?? '').replace(/!.*$/u, '').trim();
-    if (content === '' || content.startsWith('#') || content.startsWith('[')) return false;
-    return content.split(/\s+/u).length === 9;
+    if (content === '' || content.startsWith('#') || content.startsWith('[')) return undefined;
+    return content.split(/\s+/u).length;
   };
+  // The usual length of a one-line record: the commonest odd field count.
+  const counts = new Map<number, number>();
+  for (let line = 1; line <= lines.length; line += 1) {
+    const count = fieldCount(line);
+    if (count !== undefined && count % 2 === 1 && count >= 3) counts.set(count, (counts.get(count) ?? 0) + 1);
+  }
+  let recordFields = 0;
+  let seen = 0;
+  for (const [count, times] of counts) if (times > seen) [recordFields, seen] = [count, times];
+  return (line) => recordFields > 0 && fieldCount(line) === recordFields;
 }
 
 /** Issues in file order, whole-file problems (line 0) last. */

@@ -1,247 +1,29 @@
 import type { ImpedanceTable, MeasuredImpedance } from '../model/design.ts';
-import { type Complex, add, complex, divide, fromPolarDeg, magnitude, phaseDeg, scale, subtract } from './complex.ts';
-import { parseDecimal, quoteField } from './decimal-number.ts';
-import { type FrequencyUnit, frequencyUnitFactor, parseFrequencyUnit, toHertz } from './frequency-unit.ts';
+import { type Complex, add, complex, divide, magnitude, multiply, phaseDeg, scale, subtract } from './complex.ts';
+import { type FrequencyUnit, frequencyUnitFactor } from './frequency-unit.ts';
 import { checkTable } from './impedance-table-csv.ts';
-import { describeLines, type LineIssue, splitLines, stripByteOrderMark, type TextReadResult } from './text-issues.ts';
+import { describeLines, type LineIssue, type TextReadResult } from './text-issues.ts';
+import { formatOhm, type NetworkParameter, networkEntry, networkReference, type TouchstoneFormat, type TouchstoneNetwork } from './touchstone-network.ts';
 
 /**
- * Touchstone version 1 two-port files (.s2p) and the two fixtures that measure a two-terminal part
- * with a network analyser: the part in series between port 1 and port 2 ("series-thru"), or from
- * the through line to ground ("shunt-thru").
- *
- * File rules read here: "!" starts a comment anywhere on a line; one option line
- * "# <Hz|kHz|MHz|GHz> S <RI|MA|DB> R <z0>" (any order, any case, defaults GHz S MA R 50) before the
- * data; then per frequency 9 numbers: f, S11, S21, S12, S22 as pairs, possibly wrapped over lines
- * with pairs kept whole; frequencies rising. A noise-parameter block after the S-parameters
- * (its first frequency not above the last) is skipped. Version 2 keyword files are refused by name.
+ * A two-terminal part measured with a network analyser or an impedance analyser, from a Touchstone
+ * file read by touchstone-network.ts: on a one-port (its reflection S11, or Z/Y data as impedance
+ * analysers write them), or in a two-port thru fixture: in series between port 1 and port 2
+ * ("series-thru") or from the through line to ground ("shunt-thru"). docs/cli.md, `measured-part`.
  */
 
-export type TouchstoneFormat = 'RI' | 'MA' | 'DB';
-
-export interface TouchstoneOptions {
-  readonly frequencyUnit: FrequencyUnit;
-  readonly format: TouchstoneFormat;
-  /** Reference impedance of both ports, in ohms. */
-  readonly referenceOhm: number;
-}
-
-export interface TwoPortRecord {
-  /** The file line where this frequency's record starts. */
-  readonly line: number;
-  readonly frequencyHz: number;
-  readonly s11: Complex;
-  readonly s21: Complex;
-  readonly s12: Complex;
-  readonly s22: Complex;
-}
-
-export interface TouchstoneTwoPort {
-  readonly options: TouchstoneOptions;
-  /** Line of the option line, undefined when the file has none and the defaults apply. */
-  readonly optionLine: number | undefined;
-  readonly records: readonly TwoPortRecord[];
-}
-
-export const TOUCHSTONE_DEFAULTS: TouchstoneOptions = { frequencyUnit: 'GHz', format: 'MA', referenceOhm: 50 };
-
-const VALUES_PER_RECORD = 9;
-const MAX_RECORDS = 100_000;
-const MAX_ISSUES = 200;
-
-export interface TouchstoneReadOptions {
-  /** Used to refuse a file whose extension says it has another number of ports (.s1p, .s3p). */
-  readonly fileName?: string;
-}
-
-export function readTouchstoneTwoPort(text: string, readOptions: TouchstoneReadOptions = {}): TextReadResult<TouchstoneTwoPort> {
-  const ports = /\.s(\d+)p$/iu.exec(readOptions.fileName ?? '');
-  if (ports && ports[1] !== '2') {
-    return fail([{ line: 0, message: `a .s${ports[1]!}p file holds ${ports[1]!}-port data; a two-terminal part is read from a 2-port (.s2p) file` }]);
-  }
-  const issues: LineIssue[] = [];
-  const notes: LineIssue[] = [];
-  let options = TOUCHSTONE_DEFAULTS;
-  let optionLine: number | undefined;
-  const ignoredOptionLines: number[] = [];
-  const records: TwoPortRecord[] = [];
-  let pending: { line: number; values: number[] } | undefined;
-  let structureBroken = false;
-
-  const lines = splitLines(stripByteOrderMark(text));
-  for (let index = 0; index < lines.length; index += 1) {
-    const line = index + 1;
-    const content = (lines[index] ?? '').replace(/!.*$/u, '').trim();
-    if (content === '') continue;
-    if (issues.length >= MAX_ISSUES) break;
-
-    if (content.startsWith('[')) {
-      return fail([
-        { line, message: `${quoteField(content.split(/\s/u)[0] ?? content)} is a Touchstone 2 keyword; save the file as Touchstone version 1` },
-      ]);
-    }
-    if (content.startsWith('#')) {
-      if (optionLine !== undefined) {
-        ignoredOptionLines.push(line);
-        continue;
-      }
-      if (records.length > 0 || pending) {
-        issues.push({ line, message: 'the option line must come before the data' });
-        continue;
-      }
-      const parsed = parseOptionLine(content.slice(1));
-      if (typeof parsed === 'string') {
-        issues.push({ line, message: parsed });
-        structureBroken = true;
-      } else {
-        options = parsed;
-      }
-      optionLine = line;
-      continue;
-    }
-
-    const tokens = content.split(/\s+/u);
-    const values: number[] = [];
-    const bad = tokens.filter((token) => {
-      const value = parseDecimal(token);
-      if (value !== undefined) values.push(value);
-      return value === undefined;
-    });
-    if (bad.length > 0) {
-      issues.push({ line, message: `${bad.map(quoteField).join(', ')} ${bad.length === 1 ? 'is not a number' : 'are not numbers'}` });
-      structureBroken = true;
-      continue;
-    }
-    if (structureBroken) continue;
-
-    if (!pending) {
-      const last = records[records.length - 1];
-      const lastFrequency = last ? last.frequencyHz / frequencyUnitFactor(options.frequencyUnit) : undefined;
-      if (values.length === 5 && lastFrequency !== undefined && values[0]! <= lastFrequency) {
-        notes.push({ line, message: 'noise parameters from here on were skipped' });
-        break;
-      }
-      if (values.length % 2 === 0 || values.length > VALUES_PER_RECORD) {
-        issues.push({ line, message: `${values.length} values; ${recordShapeHint(values.length)}` });
-        structureBroken = true;
-        continue;
-      }
-      pending = { line, values };
-    } else {
-      const needed = VALUES_PER_RECORD - pending.values.length;
-      if (values.length % 2 === 1 || values.length > needed) {
-        const hint = pending.values.length === 3 && values.length === 3 ? ' (this looks like a one-port file: 3 values per line)' : '';
-        issues.push({
-          line,
-          message: `${values.length} value${values.length === 1 ? '' : 's'} continue the record of line ${pending.line}, which needs ${needed} more in whole pairs${hint}`,
-        });
-        structureBroken = true;
-        continue;
-      }
-      pending.values.push(...values);
-    }
-    if (pending.values.length === VALUES_PER_RECORD) {
-      const record = toRecord(pending.line, pending.values, options);
-      if (typeof record === 'string') issues.push({ line: pending.line, message: record });
-      else {
-        const previous = records[records.length - 1];
-        if (previous && !(record.frequencyHz > previous.frequencyHz)) {
-          issues.push({
-            line: pending.line,
-            message: `frequency ${record.frequencyHz} Hz is not above the ${previous.frequencyHz} Hz of line ${previous.line}: Touchstone frequencies rise`,
-          });
-        } else if (records.length >= MAX_RECORDS) {
-          return fail([{ line: pending.line, message: `more than ${MAX_RECORDS} frequencies` }]);
-        } else {
-          records.push(record);
-        }
-      }
-      pending = undefined;
-    }
-  }
-  if (pending && !structureBroken && issues.length === 0) {
-    issues.push({ line: pending.line, message: `the record starting here has ${pending.values.length} of ${VALUES_PER_RECORD} values (frequency and S11, S21, S12, S22 as pairs)` });
-  }
-  if (issues.length > 0) return fail(issues);
-  if (records.length === 0) return fail([{ line: 0, message: 'no data: expected lines of a frequency and S11, S21, S12, S22 as pairs' }]);
-  if (optionLine === undefined) {
-    notes.push({ line: 0, message: 'no option line: the Touchstone defaults apply (GHz, S, MA, R 50)' });
-  }
-  if (ignoredOptionLines.length > 0) {
-    notes.push({ line: 0, message: `only the first option line counts; ignored ${describeLines(ignoredOptionLines)}` });
-  }
-  return { ok: true, value: { options, optionLine, records }, notes };
-}
-
-function recordShapeHint(count: number): string {
-  if (count === 3) return 'a 2-port record is a frequency and four pairs (9 values); this looks like a one-port (.s1p) file';
-  if (count > VALUES_PER_RECORD) return 'a 2-port record is a frequency and four pairs (9 values); this looks like a file with more ports';
-  return 'a record starts with a frequency followed by whole pairs (9 values for a 2-port)';
-}
-
-function parseOptionLine(text: string): TouchstoneOptions | string {
-  const tokens = text.trim().split(/\s+/u).filter((token) => token !== '');
-  let frequencyUnit: FrequencyUnit | undefined;
-  let format: TouchstoneFormat | undefined;
-  let referenceOhm: number | undefined;
-  for (let i = 0; i < tokens.length; i += 1) {
-    const token = tokens[i]!;
-    const upper = token.toUpperCase();
-    const unit = parseFrequencyUnit(token);
-    if (unit) {
-      if (frequencyUnit) return `option line: frequency unit given twice (${frequencyUnit} and ${token})`;
-      frequencyUnit = unit;
-    } else if (upper === 'S') {
-      // The one parameter type read here.
-    } else if (upper === 'Y' || upper === 'Z' || upper === 'H' || upper === 'G') {
-      return `option line: ${upper}-parameters are not read; export S-parameters`;
-    } else if (upper === 'RI' || upper === 'MA' || upper === 'DB') {
-      if (format) return `option line: data format given twice (${format} and ${upper})`;
-      format = upper;
-    } else if (upper === 'R') {
-      const value = parseDecimal(tokens[i + 1] ?? '');
-      if (value === undefined || !(value > 0)) {
-        return `option line: R must be followed by the reference impedance in ohms, got ${tokens[i + 1] === undefined ? 'nothing' : quoteField(tokens[i + 1]!)}`;
-      }
-      referenceOhm = value;
-      i += 1;
-    } else {
-      return `option line: unknown option ${quoteField(token)} (expected a unit Hz/kHz/MHz/GHz, S, a format RI/MA/DB and R <ohms>)`;
-    }
-  }
-  return {
-    frequencyUnit: frequencyUnit ?? TOUCHSTONE_DEFAULTS.frequencyUnit,
-    format: format ?? TOUCHSTONE_DEFAULTS.format,
-    referenceOhm: referenceOhm ?? TOUCHSTONE_DEFAULTS.referenceOhm,
-  };
-}
-
-function toRecord(line: number, values: readonly number[], options: TouchstoneOptions): TwoPortRecord | string {
-  const frequency = values[0]!;
-  if (frequency < 0) return `frequency ${frequency} ${options.frequencyUnit} is negative`;
-  const names = ['S11', 'S21', 'S12', 'S22'] as const;
-  const pairs: Complex[] = [];
-  for (let k = 0; k < 4; k += 1) {
-    const a = values[1 + 2 * k]!;
-    const b = values[2 + 2 * k]!;
-    if (options.format === 'RI') pairs.push(complex(a, b));
-    else if (options.format === 'MA') {
-      if (a < 0) return `${names[k]} magnitude ${a} is negative`;
-      pairs.push(fromPolarDeg(a, b));
-    } else pairs.push(fromPolarDeg(10 ** (a / 20), b));
-  }
-  return { line, frequencyHz: toHertz(frequency, options.frequencyUnit), s11: pairs[0]!, s21: pairs[1]!, s12: pairs[2]!, s22: pairs[3]! };
-}
-
-function fail<T>(issues: readonly LineIssue[]): TextReadResult<T> {
-  return { ok: false, issues };
-}
-
-// ---- Thru fixtures -------------------------------------------------------------------------
-
-/** How the part sat between the two ports. */
-export type ThruFixture = 'series-thru' | 'shunt-thru';
+/** How the part sat on the analyser's ports. */
+export type MeasurementFixture = 'reflection' | 'series-thru' | 'shunt-thru';
+export type ThruFixture = Exclude<MeasurementFixture, 'reflection'>;
+export const MEASUREMENT_FIXTURES: readonly MeasurementFixture[] = ['reflection', 'series-thru', 'shunt-thru'];
 export const THRU_FIXTURES: readonly ThruFixture[] = ['series-thru', 'shunt-thru'];
+
+/** The ports a fixture uses. */
+export function fixturePorts(fixture: MeasurementFixture): 1 | 2 {
+  return fixture === 'reflection' ? 1 : 2;
+}
+
+// ---- Fixture formulas (equal, real reference impedances) ----------------------------------------
 
 /**
  * Series-thru: Z in series between two ports of reference Z0 sees 2·Z0 around it, so
@@ -266,8 +48,18 @@ export function s21ToImpedanceShuntThru(s21: Complex, z0: number): Complex {
   return divide(scale(s21, z0), scale(subtract(complex(1), s21), 2));
 }
 
+/** Reflection of Z terminating a port of real reference Z0: S11 = (Z − Z0)/(Z + Z0). */
+export function impedanceToS11(z: Complex, z0: number): Complex {
+  return divide(subtract(z, complex(z0)), add(z, complex(z0)));
+}
+
+/** Z = Z0·(1 + S11)/(1 − S11). */
+export function s11ToImpedance(s11: Complex, z0: number): Complex {
+  return scale(divide(add(complex(1), s11), subtract(complex(1), s11)), z0);
+}
+
 /** The full S-matrix of a thru fixture holding impedance Z (symmetric and reciprocal). */
-export function thruFixtureSParameters(fixture: ThruFixture, z: Complex, z0: number): Omit<TwoPortRecord, 'line' | 'frequencyHz'> {
+export function thruFixtureSParameters(fixture: ThruFixture, z: Complex, z0: number): Omit<TwoPortRecord, 'frequencyHz'> {
   if (fixture === 'series-thru') {
     const denominator = add(z, complex(2 * z0));
     const s11 = divide(z, denominator);
@@ -280,29 +72,87 @@ export function thruFixtureSParameters(fixture: ThruFixture, z: Complex, z0: num
   return { s11, s21, s12: s21, s22: s11 };
 }
 
-export interface ThruImpedance {
+/**
+ * The part's impedance at one frequency from the file's parameters, exact for any real reference
+ * impedances R1, R2 of the ports (docs/cli.md, "Touchstone files"):
+ *
+ * | fixture | S | Y | Z |
+ * | reflection | R1·(1 + S11)/(1 − S11) | 1/Y11 | Z11 |
+ * | series-thru | 2·√(R1·R2)/S21 − R1 − R2 | −1/Y21 | det Z / Z21 |
+ * | shunt-thru | S21·R1·R2 / (2·√(R1·R2) − S21·(R1 + R2)) | −Y21 / det Y | Z21 |
+ */
+function partImpedance(
+  fixture: MeasurementFixture,
+  parameter: NetworkParameter,
+  entry: (i: number, j: number) => Complex,
+  r1: number,
+  r2: number,
+): Complex {
+  const one = complex(1);
+  if (fixture === 'reflection') {
+    if (parameter === 'S') return scale(divide(add(one, entry(0, 0)), subtract(one, entry(0, 0))), r1);
+    return parameter === 'Y' ? divide(one, entry(0, 0)) : entry(0, 0);
+  }
+  const p21 = entry(1, 0);
+  const determinant = (): Complex => subtract(multiply(entry(0, 0), entry(1, 1)), multiply(entry(0, 1), entry(1, 0)));
+  if (fixture === 'series-thru') {
+    if (parameter === 'S') return subtract(divide(complex(2 * Math.sqrt(r1 * r2)), p21), complex(r1 + r2));
+    return parameter === 'Y' ? scale(divide(one, p21), -1) : divide(determinant(), p21);
+  }
+  if (parameter === 'S') return divide(scale(p21, r1 * r2), subtract(complex(2 * Math.sqrt(r1 * r2)), scale(p21, r1 + r2)));
+  return parameter === 'Y' ? scale(divide(p21, determinant()), -1) : p21;
+}
+
+// ---- From a network to a part ---------------------------------------------------------------------
+
+export interface PartFromNetwork {
   readonly table: ImpedanceTable;
-  readonly fixture: ThruFixture;
-  readonly referenceOhm: number;
+  readonly fixture: MeasurementFixture;
+  readonly parameter: NetworkParameter;
+  /** The one reference impedance of S data, when every port at every frequency had the same real one. */
+  readonly referenceOhm: number | undefined;
   /** The file line of each table point. */
   readonly lines: readonly number[];
 }
 
+const MAX_ISSUES = 200;
+
 /**
- * The part's impedance from S21 of a thru fixture. `referenceOhm` overrides the file's R (a
- * fixture measured in another system than the file states). A 0 Hz point is left out (a table
- * holds positive frequencies); a point where the impedance is zero or unbounded is an error.
+ * The part's impedance from a network read from a Touchstone file. `referenceOhm` overrides the
+ * file's reference impedances of S data (a fixture measured in another system than the file states).
+ * Refused: a fixture that does not match the file's ports; S data referred to a complex or non-positive
+ * impedance (the wave definition is then not known, and the formulas above do not hold); a point
+ * where the impedance is zero or unbounded. A 0 Hz point is left out (a table holds positive
+ * frequencies).
  */
-export function impedanceFromThru(
-  data: TouchstoneTwoPort,
-  fixture: ThruFixture,
+export function impedanceFromNetwork(
+  network: TouchstoneNetwork,
+  fixture: MeasurementFixture,
   options: { readonly referenceOhm?: number } = {},
-): TextReadResult<ThruImpedance> {
-  const z0 = options.referenceOhm ?? data.options.referenceOhm;
-  const notes: LineIssue[] = [];
-  if (options.referenceOhm !== undefined && options.referenceOhm !== data.options.referenceOhm) {
-    notes.push({ line: data.optionLine ?? 0, message: `reference impedance ${z0} Ω used instead of the file's ${data.options.referenceOhm} Ω` });
+): TextReadResult<PartFromNetwork> {
+  const ports = fixturePorts(fixture);
+  if (network.ports !== ports) {
+    return fail([
+      {
+        line: 0,
+        message:
+          network.ports === 1
+            ? `a 1-port file holds one reflection; --fixture ${fixture} needs a 2-port (thru) file, use the reflection fixture`
+            : network.ports === 2
+              ? `a 2-port file needs a thru fixture (series-thru or shunt-thru), not ${fixture}`
+              : `a ${network.ports}-port file: a two-terminal part is read from a 1-port (reflection) or a 2-port (thru) file`,
+      },
+    ]);
   }
+  const { parameter } = network;
+  const override = options.referenceOhm;
+  if (override !== undefined && !(override > 0 && Number.isFinite(override))) {
+    return fail([{ line: 0, message: `the reference impedance must be a positive number of ohms, got ${override}` }]);
+  }
+  if (override !== undefined && parameter !== 'S') {
+    return fail([{ line: 0, message: `a reference impedance applies to S-parameters; this file holds ${parameter}-parameters in absolute units` }]);
+  }
+  const notes: LineIssue[] = [];
   const issues: LineIssue[] = [];
   const skippedDc: number[] = [];
   const nonPassive: number[] = [];
@@ -310,53 +160,104 @@ export function impedanceFromThru(
   const magnitudeOhm: number[] = [];
   const phase: number[] = [];
   const lines: number[] = [];
-  for (const record of data.records) {
-    if (record.frequencyHz === 0) {
-      skippedDc.push(record.line);
+  const references = new Set<number>();
+  const count = network.frequencyHz.length;
+  for (let k = 0; k < count && issues.length < MAX_ISSUES; k += 1) {
+    const line = network.lines[k]!;
+    const frequency = network.frequencyHz[k]!;
+    if (frequency === 0) {
+      skippedDc.push(line);
       continue;
     }
-    const z = fixture === 'series-thru' ? s21ToImpedanceSeriesThru(record.s21, z0) : s21ToImpedanceShuntThru(record.s21, z0);
+    const r: number[] = [];
+    if (parameter === 'S') {
+      let refused = false;
+      for (let i = 0; i < ports; i += 1) {
+        const reference = networkReference(network, k, i);
+        if (override !== undefined) {
+          r.push(override);
+          continue;
+        }
+        if (reference.im !== 0 && Math.abs(reference.im) > 1e-12 * Math.abs(reference.re)) {
+          issues.push({
+            line,
+            message: `the reference impedance of port ${i + 1} is complex here (${formatOhm(reference.re, reference.im)}): S-parameters referred to a complex impedance have more than one definition (power waves, pseudo-waves) and the file does not say which; export the data renormalised to a real impedance such as 50 Ω`,
+          });
+          refused = true;
+          break;
+        }
+        if (!(reference.re > 0)) {
+          issues.push({ line, message: `the reference impedance of port ${i + 1} is ${formatOhm(reference.re, reference.im)}; it must be positive` });
+          refused = true;
+          break;
+        }
+        r.push(reference.re);
+      }
+      if (refused) continue;
+      for (const value of r) references.add(value);
+    }
+    const z = partImpedance(fixture, parameter, (i, j) => networkEntry(network, k, i, j), r[0] ?? 1, r[1] ?? r[0] ?? 1);
     const size = magnitude(z);
-    if (!Number.isFinite(size)) {
-      issues.push({
-        line: record.line,
-        message: `S21 = ${formatComplex(record.s21)} makes the ${fixture} impedance unbounded (S21 = ${fixture === 'series-thru' ? '0' : '1'})`,
-      });
+    const shown = parameter === 'S' ? (fixture === 'reflection' ? 'S11' : 'S21') : `${parameter}${fixture === 'reflection' ? '11' : '21'}`;
+    const value = fixture === 'reflection' ? networkEntry(network, k, 0, 0) : networkEntry(network, k, 1, 0);
+    if (!Number.isFinite(size) || size > 1e300) {
+      issues.push({ line, message: `${shown} = ${formatComplex(value)} makes the ${fixture} impedance unbounded` });
       continue;
     }
     if (!(size > 0)) {
-      issues.push({ line: record.line, message: `S21 = ${formatComplex(record.s21)} makes the ${fixture} impedance zero` });
+      issues.push({ line, message: `${shown} = ${formatComplex(value)} makes the ${fixture} impedance zero` });
       continue;
     }
-    if (z.re < 0) nonPassive.push(record.line);
-    frequencyHz.push(record.frequencyHz);
+    if (z.re < 0) nonPassive.push(line);
+    frequencyHz.push(frequency);
     magnitudeOhm.push(size);
     phase.push(phaseDeg(z));
-    lines.push(record.line);
-    if (issues.length >= MAX_ISSUES) break;
+    lines.push(line);
   }
   if (issues.length > 0) return fail(issues);
+  if (override !== undefined) {
+    const stated = [...new Set(Array.from(network.referenceRe))];
+    if (!(stated.length === 1 && stated[0] === override && network.referenceIm.every((v) => v === 0))) {
+      notes.push({ line: network.optionLine ?? 0, message: `reference impedance ${override} Ω used instead of the file's ${formatReferences(network)}` });
+    }
+  }
   if (skippedDc.length > 0) notes.push({ line: skippedDc[0]!, message: 'the 0 Hz point was left out: an impedance table holds positive frequencies' });
   if (nonPassive.length > 0) {
     notes.push({
       line: 0,
-      message: `the impedance has a negative real part on ${describeLines(nonPassive)} (|S21| above what a passive part allows): check the calibration`,
+      message: `the impedance has a negative real part on ${describeLines(nonPassive)} (more than a passive part can give): check the calibration`,
     });
   }
   if (frequencyHz.length < 2) return fail([{ line: 0, message: `an impedance table needs at least 2 frequencies, the file gives ${frequencyHz.length}` }]);
   const checked = checkTable({ frequencyHz, magnitudeOhm, phaseDeg: phase }, lines);
   if (!checked.ok) return checked;
-  return { ok: true, value: { table: checked.value, fixture, referenceOhm: z0, lines }, notes };
+  const referenceOhm = references.size === 1 ? [...references][0] : undefined;
+  return { ok: true, value: { table: checked.value, fixture, parameter, referenceOhm, lines }, notes };
+}
+
+function formatReferences(network: TouchstoneNetwork): string {
+  const first = networkReference(network, 0, 0);
+  return network.referenceRe.every((v) => v === first.re) && network.referenceIm.every((v) => v === first.im)
+    ? formatOhm(first.re, first.im)
+    : 'reference impedances';
 }
 
 /** A measured part for a design, with where it came from. */
-export function measuredPartFromThru(result: ThruImpedance, fileName?: string): MeasuredImpedance {
+export function measuredPartFromNetwork(result: PartFromNetwork, fileName?: string): MeasuredImpedance {
+  const format =
+    result.fixture === 'reflection'
+      ? result.parameter === 'S'
+        ? 'touchstone-reflection'
+        : 'touchstone-one-port-impedance'
+      : result.fixture === 'series-thru'
+        ? 'touchstone-series-thru'
+        : 'touchstone-shunt-thru';
   return {
     kind: 'measured',
     table: result.table,
     origin: {
-      format: result.fixture === 'series-thru' ? 'touchstone-series-thru' : 'touchstone-shunt-thru',
-      referenceImpedance: result.referenceOhm,
+      format,
+      ...(result.referenceOhm === undefined ? {} : { referenceImpedance: result.referenceOhm }),
       ...(fileName === undefined ? {} : { fileName }),
     },
   };
@@ -367,7 +268,20 @@ function formatComplex(value: Complex): string {
   return `${value.re.toPrecision(6)} ${sign} j${Math.abs(value.im).toPrecision(6)}`;
 }
 
+function fail<T>(issues: readonly LineIssue[]): TextReadResult<T> {
+  return { ok: false, issues };
+}
+
 // ---- Writing -------------------------------------------------------------------------------
+
+/** One frequency of a two-port's S-parameters, for writing. */
+export interface TwoPortRecord {
+  readonly frequencyHz: number;
+  readonly s11: Complex;
+  readonly s21: Complex;
+  readonly s12: Complex;
+  readonly s22: Complex;
+}
 
 export interface TouchstoneWriteOptions {
   readonly frequencyUnit?: FrequencyUnit;
@@ -382,7 +296,7 @@ export interface TouchstoneWriteOptions {
  * Numbers are written with full precision so that a file read back gives the same values.
  */
 export function writeTouchstoneTwoPort(
-  records: readonly Omit<TwoPortRecord, 'line'>[],
+  records: readonly TwoPortRecord[],
   options: TouchstoneWriteOptions = {},
 ): string {
   const unit = options.frequencyUnit ?? 'Hz';

@@ -79,7 +79,7 @@ export const dampingRlSchema = z.strictObject({
 });
 
 export const measuredOriginSchema = z.strictObject({
-  format: z.enum(['impedance-table', 'touchstone-series-thru', 'touchstone-shunt-thru']),
+  format: z.enum(['impedance-table', 'touchstone-series-thru', 'touchstone-shunt-thru', 'touchstone-reflection', 'touchstone-one-port-impedance']),
   fileName: z.string().max(260).optional(),
   referenceImpedance: optionalQuantity('Ω'),
 });

@@ -1,6 +1,7 @@
 import { type FrequencyUnit, FREQUENCY_UNITS, parseFrequencyUnit } from '../../io/frequency-unit.ts';
 import { formatLineIssue, type LineIssue } from '../../io/text-issues.ts';
-import { THRU_FIXTURES, type ThruFixture } from '../../io/touchstone.ts';
+import { MEASUREMENT_FIXTURES, type MeasurementFixture } from '../../io/touchstone.ts';
+import { readTouchstone } from '../../io/touchstone-network.ts';
 import {
   formatIssue,
   formatQuantity,
@@ -20,6 +21,7 @@ import { tell, writeOutput } from '../output.ts';
 const NAME = 'measured-part';
 const BEAD = 'fixtures/measured/invented-bead.csv';
 const WINDING = 'fixtures/measured/invented-winding-series-thru.s2p';
+const ONE_PORT = 'fixtures/touchstone/rlc-bead-reflection-ma-mhz.s1p';
 
 /** Where the element sits in the minimal design that checks it. */
 const ELEMENT_PATH = 'stages[0].elements[0]';
@@ -29,19 +31,19 @@ const PART_PLACEMENTS: readonly Placement[] = PLACEMENTS.filter((p) => p !== 'bo
 
 export const measuredPartCommand: Command = {
   name: NAME,
-  summary: 'turn a measured |Z|/phase table or a Touchstone thru file into a measured part for a design (JSON)',
+  summary: 'turn a measured |Z|/phase table or a Touchstone file (one-port, or two-port thru) into a measured part for a design (JSON)',
   description: [
     'Reads a measurement of a two-terminal part and writes it as JSON for a design: the part ({"kind": "measured", "table": …, "origin": …}), or with --id and --placement a whole element to put in a stage’s "elements". The result is checked against the design schema before it is written, so it always loads.',
-    'The file is a |Z| table (frequency, |Z| in Ω, phase in °; comma, semicolon, tab or space separated, an optional header naming columns and units) or a Touchstone v1 two-port (.s2p) of the part in a thru fixture, whose S21 gives the impedance. Touchstone is recognised by the extension .s<n>p or by its option line ("# MHz S DB R 50"); anything else is read as a table.',
+    'The file is a |Z| table (frequency, |Z| in Ω, phase in °; comma, semicolon, tab or space separated, an optional header naming columns and units) or a Touchstone file (version 1 or 2): a one-port (.s1p) of the part measured by reflection, Z = Z0·(1 + S11)/(1 − S11), or of Z- or Y-data as impedance analysers write them ("# Hz Z MA R 1"); or a two-port (.s2p) of the part in a thru fixture, whose S21 gives the impedance. Touchstone is recognised by the extension .s<n>p, .z<n>p, .y<n>p or .ts, or by its option line ("# MHz S DB R 50") or [Version] keyword; anything else is read as a table.',
     'A data line that cannot be used is left out and reported with its line number on standard error; the command still succeeds when at least two points remain. It fails (exit 2) when the file cannot be read, when a problem concerns the file as a whole (a header, the option line, a unit), when frequencies are out of order, when more than 199 lines are rejected, or when fewer than two points remain. --strict fails on any rejected line.',
   ],
-  arguments: [{ name: 'file', description: 'a |Z| table (.csv, .txt, …) or a Touchstone two-port file (.s2p)' }],
+  arguments: [{ name: 'file', description: 'a |Z| table (.csv, .txt, …) or a Touchstone file (.s1p, .s2p, .ts)' }],
   options: [
     { name: 'out', short: 'o', value: 'file', description: 'write to <file> instead of standard output ("-" is standard output)' },
     {
       name: 'fixture',
       value: 'fixture',
-      description: 'Touchstone only, required there: "series-thru" (the part in series between port 1 and port 2) or "shunt-thru" (from the through line to ground)',
+      description: 'Touchstone only, required for a two-port: "series-thru" (the part in series between port 1 and port 2) or "shunt-thru" (from the through line to ground); a one-port is "reflection" (the default)',
     },
     {
       name: 'frequency-unit',
@@ -55,6 +57,7 @@ export const measuredPartCommand: Command = {
   examples: [
     { command: `chokepoint ${NAME} ${BEAD}`, description: 'the part from a |Z| table, on standard output' },
     { command: `chokepoint ${NAME} ${WINDING} --fixture series-thru --id L1 --placement series-line1 -o l1.json`, description: 'a whole element from a series-thru Touchstone file, into l1.json' },
+    { command: `chokepoint ${NAME} ${ONE_PORT}`, description: 'the part from a one-port reflection file' },
   ],
   run: runMeasuredPart,
 };
@@ -69,9 +72,10 @@ async function runMeasuredPart(args: ParsedArgs, context: CommandContext): Promi
 
   const kind = detectMeasurementKind(path, text);
   if (kind === 'touchstone') {
-    if (fixture === undefined) {
+    const ports = touchstonePorts(text, path);
+    if (fixture === undefined && ports !== undefined && ports !== 1) {
       throw new UsageError(
-        `${path} is a Touchstone file: say how the part was connected with --fixture series-thru (in series between the ports) or --fixture shunt-thru (from the through line to ground)`,
+        `${path} is a ${ports}-port Touchstone file: say how the part was connected with --fixture series-thru (in series between the ports) or --fixture shunt-thru (from the through line to ground)`,
         NAME,
       );
     }
@@ -89,7 +93,7 @@ async function runMeasuredPart(args: ParsedArgs, context: CommandContext): Promi
     ...(fixture === undefined ? {} : { fixture }),
     ...(frequencyUnit === undefined ? {} : { frequencyUnit }),
   });
-  const what = kind === 'touchstone' ? `a ${fixture} impedance` : 'a usable |Z| table';
+  const what = kind === 'touchstone' ? `a ${fixture ?? 'usable'} impedance` : 'a usable |Z| table';
   if (!reading.ok) {
     const count = reading.issues.length;
     throw new CliError(
@@ -123,11 +127,22 @@ function where(path: string, issue: LineIssue): string {
   return issue.line > 0 ? `${path}, line ${issue.line}` : path;
 }
 
-function readFixture(text: string | undefined): ThruFixture | undefined {
+function readFixture(text: string | undefined): MeasurementFixture | undefined {
   if (text === undefined) return undefined;
-  const fixture = THRU_FIXTURES.find((f) => f === text);
-  if (!fixture) throw new UsageError(`--fixture must be ${THRU_FIXTURES.map((f) => `"${f}"`).join(' or ')}, got "${text}"`, NAME);
+  const fixture = MEASUREMENT_FIXTURES.find((f) => f === text);
+  if (!fixture) throw new UsageError(`--fixture must be ${MEASUREMENT_FIXTURES.map((f) => `"${f}"`).join(', ')}, got "${text}"`, NAME);
   return fixture;
+}
+
+/**
+ * The file's number of ports, from a first reading or else its name (.s2p); undefined when neither
+ * tells. A one-port needs no --fixture; an unknown count is settled once the file is read.
+ */
+function touchstonePorts(text: string, path: string): number | undefined {
+  const read = readTouchstone(text, { fileName: path });
+  if (read.ok) return read.value.ports;
+  const named = /\.[syz](\d+)p$/iu.exec(path);
+  return named ? Number(named[1]) : undefined;
 }
 
 function readFrequencyUnit(text: string | undefined): FrequencyUnit | undefined {
