@@ -6,7 +6,8 @@ import { type CliIo, runCli } from '../../src/cli/run-cli.ts';
 import { sweepDesign } from '../../src/engine/index.ts';
 import { type Complex, complex, magnitude, phaseDeg } from '../../src/io/complex.ts';
 import { measuredPartFromTable, readImpedanceTableCsv } from '../../src/io/impedance-table-csv.ts';
-import { thruFixtureSParameters, type TouchstoneFormat, writeTouchstoneTwoPort } from '../../src/io/touchstone.ts';
+import { thruFixtureSParameters, writeTouchstoneTwoPort } from '../../src/io/touchstone.ts';
+import type { TouchstoneFormat } from '../../src/io/touchstone-network.ts';
 import type { MeasuredImpedance } from '../../src/model/design.ts';
 import { readDesign } from '../../src/model/index.ts';
 
@@ -259,7 +260,7 @@ describe('chokepoint measured-part: a Touchstone thru file', () => {
       const file = writeTouchstoneTwoPort(records, { format, frequencyUnit: 'MHz', referenceOhm: 50, comments: ['INVENTED round-trip test data'] });
       const { json, stderr } = await printed(['measured-part', 'round-trip.s2p', '--fixture', 'series-thru'], { 'round-trip.s2p': file });
       // A negative real part (phase beyond ±90°) is not passive, and the reader says so.
-      expect(stderr).toBe('chokepoint: note: round-trip.s2p: the impedance has a negative real part on line 9 (|S21| above what a passive part allows): check the calibration\n');
+      expect(stderr).toBe('chokepoint: note: round-trip.s2p: the impedance has a negative real part on line 9 (more than a passive part can give): check the calibration\n');
       const table = readsBackAsPart(json).table;
       expect(table.frequencyHz).toEqual(frequencyHz);
       table.magnitudeOhm.forEach((size, i) => expect(relative(size, magnitudeOhm[i]!), `${format} point ${i}`).toBeLessThan(1e-9));
@@ -286,7 +287,7 @@ describe('chokepoint measured-part: a Touchstone thru file', () => {
       .join(' ');
     const broken = lines.join('\n');
     const { json, stderr } = await printed(['measured-part', 'broken.s2p', '--fixture', 'series-thru'], { 'broken.s2p': broken });
-    expect(stderr).toMatch(/^chokepoint: warning: broken\.s2p, line 10 left out: S21 = .* makes the series-thru impedance unbounded \(S21 = 0\)\n$/u);
+    expect(stderr).toMatch(/^chokepoint: warning: broken\.s2p, line 10 left out: S21 = .* makes the series-thru impedance unbounded\n$/u);
     expect(readsBackAsPart(json).table.frequencyHz).toHaveLength(30);
     const strict = await run(['measured-part', 'broken.s2p', '--fixture', 'series-thru', '--strict'], { 'broken.s2p': broken });
     expect(strict.code).toBe(2);
@@ -314,6 +315,53 @@ async function refused(argv: string[], files: Record<string, string> = {}): Prom
   return stderr;
 }
 
+/** A file in fixtures/touchstone (made with scikit-rf 0.15.4) and the part impedance scikit-rf computed for it. */
+function scikitRf(name: string): { files: Record<string, string>; re: readonly number[]; im: readonly number[] } {
+  const path = `fixtures/touchstone/${name}`;
+  const expected = JSON.parse(fixture(`${path}.expected.json`)) as { part: { re: number[]; im: number[] } };
+  return { files: { [path]: fixture(path) }, re: expected.part.re, im: expected.part.im };
+}
+
+describe('chokepoint measured-part: one-port and version 2 Touchstone files (made with scikit-rf 0.15.4)', () => {
+  const cases: readonly { name: string; args: string[]; origin: string; note?: RegExp }[] = [
+    { name: 'rlc-bead-reflection-ma-mhz.s1p', args: [], origin: 'touchstone-reflection' },
+    { name: 'capacitor-reflection-ri-ghz-75ohm.s1p', args: ['--fixture', 'reflection'], origin: 'touchstone-reflection' },
+    { name: 'rlc-bead-z-ma-hz-r1.s1p', args: [], origin: 'touchstone-one-port-impedance' },
+    { name: 'capacitor-y-db-mhz-r50.s1p', args: [], origin: 'touchstone-one-port-impedance' },
+    { name: 'rlc-bead-z-v2-ri-mhz.ts', args: [], origin: 'touchstone-one-port-impedance' },
+    { name: 'winding-series-thru-v2-full-12_21-ri-per-port.ts', args: ['--fixture', 'series-thru'], origin: 'touchstone-series-thru' },
+    { name: 'capacitor-shunt-thru-v2-lower-db-per-port.ts', args: ['--fixture', 'shunt-thru'], origin: 'touchstone-shunt-thru' },
+    {
+      name: 'rlc-bead-reflection-port-impedance-comments-25ohm.s1p',
+      args: [],
+      origin: 'touchstone-reflection',
+      note: /^chokepoint: note: .*, line 2: the file gives no reference impedance \(R\) on its option line: the port impedances stated in its comments were used/mu,
+    },
+  ];
+  for (const { name, args, origin, note } of cases) {
+    it(`${name}: the part's impedance agrees with scikit-rf's within 1e-9`, async () => {
+      const { files, re, im } = scikitRf(name);
+      const { json, stderr } = await printed(['measured-part', `fixtures/touchstone/${name}`, ...args], files);
+      const part = readsBackAsPart(json);
+      expect(part.origin?.format).toBe(origin);
+      expect(part.table.frequencyHz).toHaveLength(re.length);
+      part.table.magnitudeOhm.forEach((m, k) => expect(relative(m, Math.hypot(re[k]!, im[k]!))).toBeLessThan(1e-9));
+      part.table.phaseDeg.forEach((p, k) => expect(Math.abs(p - (Math.atan2(im[k]!, re[k]!) * 180) / Math.PI)).toBeLessThan(1e-7));
+      if (note) expect(stderr).toMatch(note);
+    });
+  }
+
+  it('refuses a series-thru fixture for a one-port, and a one-port S file referred to a complex impedance', async () => {
+    const { files } = scikitRf('rlc-bead-reflection-ma-mhz.s1p');
+    expect(await refused(['measured-part', 'fixtures/touchstone/rlc-bead-reflection-ma-mhz.s1p', '--fixture', 'series-thru'], files)).toMatch(
+      /a 1-port file holds one reflection/u,
+    );
+    expect(await refused(['measured-part', 'c.s1p'], { 'c.s1p': '# GHz S RI R (50+50j)\n1 0.2 0\n2 0.2 0\n' })).toMatch(
+      /line 2: the reference impedance of port 1 is complex here/u,
+    );
+  });
+});
+
 describe('chokepoint measured-part: bad input exits 2 with a message that names the problem', () => {
   it('a file that does not exist or is a folder', async () => {
     expect(await refused(['measured-part', 'missing.csv'])).toBe('chokepoint: cannot read the measurement file missing.csv: no such file\n');
@@ -323,7 +371,7 @@ describe('chokepoint measured-part: bad input exits 2 with a message that names 
 
   it('a Touchstone file without --fixture, or with a table option', async () => {
     expect(await refused(['measured-part', WINDING])).toBe(
-      `chokepoint: ${WINDING} is a Touchstone file: say how the part was connected with --fixture series-thru (in series between the ports) or --fixture shunt-thru (from the through line to ground)\nRun "chokepoint help measured-part" for the usage.\n`,
+      `chokepoint: ${WINDING} is a 2-port Touchstone file: say how the part was connected with --fixture series-thru (in series between the ports) or --fixture shunt-thru (from the through line to ground)\nRun "chokepoint help measured-part" for the usage.\n`,
     );
     expect(await refused(['measured-part', WINDING, '--fixture', 'series-thru', '--frequency-unit', 'MHz'])).toMatch(
       /--frequency-unit is for \|Z\| tables; the Touchstone file .* gives its unit in its option line/u,
@@ -332,7 +380,7 @@ describe('chokepoint measured-part: bad input exits 2 with a message that names 
 
   it('a fixture for a table, an unknown fixture or unit', async () => {
     expect(await refused(['measured-part', BEAD, '--fixture', 'series-thru'])).toMatch(/--fixture is for Touchstone files; .*invented-bead\.csv reads as a \|Z\| table/u);
-    expect(await refused(['measured-part', WINDING, '--fixture', 'series'])).toMatch(/--fixture must be "series-thru" or "shunt-thru", got "series"/u);
+    expect(await refused(['measured-part', WINDING, '--fixture', 'series'])).toMatch(/--fixture must be "reflection", "series-thru", "shunt-thru", got "series"/u);
     expect(await refused(['measured-part', BEAD, '--frequency-unit', 'THz'])).toMatch(/--frequency-unit must be Hz, kHz, MHz, GHz, got "THz"/u);
   });
 
@@ -378,15 +426,19 @@ describe('chokepoint measured-part: bad input exits 2 with a message that names 
   });
 
   it('a Touchstone file with Z-parameters, a wrapped record cut short, or one-port data', async () => {
+    // Z-parameters of a two-port whose series-thru impedance is zero (all entries equal: det Z = 0).
     expect(await refused(['measured-part', 'z.s2p', '--fixture', 'series-thru'], { 'z.s2p': '# MHz Z RI R 50\n1 1 0 1 0 1 0 1 0\n' })).toMatch(
-      /\n {2}line 1: option line: Z-parameters are not read; export S-parameters\n/u,
+      /\n {2}line 2: Z21 = 50\.0000 \+ j0\.00000 makes the series-thru impedance zero\n/u,
+    );
+    expect(await refused(['measured-part', 'h.s2p', '--fixture', 'series-thru'], { 'h.s2p': '# MHz H RI R 50\n1 1 0 1 0 1 0 1 0\n' })).toMatch(
+      /\n {2}line 1: option line: H-parameters are not read; export S-, Y- or Z-parameters\n/u,
     );
     // A line that is not a whole record may belong to a wrapped one: it is never left out.
     const lines = FIXTURES[WINDING]!.split('\n');
     lines[7] = lines[7]!.split(' ').slice(0, 8).join(' ');
     expect(await refused(['measured-part', 'cut.s2p', '--fixture', 'series-thru'], { 'cut.s2p': lines.join('\n') })).toMatch(/\n {2}line 8: 8 values; /u);
     expect(await refused(['measured-part', 'one.s1p', '--fixture', 'shunt-thru'], { 'one.s1p': '# MHz S MA R 50\n1 0.5 0\n' })).toMatch(
-      /a \.s1p file holds 1-port data/u,
+      /a 1-port file holds one reflection; --fixture shunt-thru needs a 2-port \(thru\) file/u,
     );
   });
 

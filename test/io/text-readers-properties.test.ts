@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readImpedanceTableCsv, type TableDelimiter } from '../../src/io/impedance-table-csv.ts';
-import { readTouchstoneTwoPort } from '../../src/io/touchstone.ts';
+import { readTouchstone } from '../../src/io/touchstone-network.ts';
 import { impedanceTableSchema } from '../../src/model/design-schema.ts';
 import { propertySettings } from '../support/property-settings.ts';
 
@@ -40,7 +40,7 @@ describe('the text readers on arbitrary input (property)', () => {
   it('the Touchstone reader never throws and reports real lines', () => {
     fc.assert(
       fc.property(fileText, (text) => {
-        const result = readTouchstoneTwoPort(text);
+        const result = readTouchstone(text);
         const issues = result.ok ? result.notes : result.issues;
         for (const issue of issues) expect(issue.line).toBeLessThanOrEqual(lineCount(text));
       }),
