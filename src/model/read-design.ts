@@ -69,12 +69,13 @@ export function toValidationIssue(issue: z.core.$ZodIssue): ValidationIssue {
       };
     case 'invalid_union':
       return { path, code: 'unknown-kind', message: unionMessage(issue) };
-    case 'invalid_value':
-      return {
-        path,
-        code: 'invalid-value',
-        message: `expected one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}, got ${describeValue(issue.input)}`,
-      };
+    case 'invalid_value': {
+      const choices = issue.values.map((v) => JSON.stringify(v)).join(', ');
+      // A required choice left out is missing, not a wrong value ("got undefined" helps nobody).
+      return issue.input === undefined
+        ? { path, code: 'missing-field', message: `missing: expected one of ${choices}` }
+        : { path, code: 'invalid-value', message: `expected one of ${choices}, got ${describeValue(issue.input)}` };
+    }
     case 'too_small':
     case 'too_big':
       return { path, code: 'out-of-range', message: issue.message };

@@ -64,6 +64,13 @@ describe('bad input gets an error naming the field, never a crash', () => {
     expectIssue(issues, 'stages[0].elements[0].part.capacitance', 'bad-quantity', /unknown unit/);
   });
 
+  it('a required choice left out is "missing", not "got undefined" (found by the input fuzzing)', () => {
+    const issues = issuesAfter((d) => {
+      delete (d.stages[0]!.elements[0] as { placement?: unknown }).placement;
+    });
+    expectIssue(issues, 'stages[0].elements[0].placement', 'missing-field', /^missing: expected one of "series-line1", /u);
+  });
+
   it('a capacitance written in henries', () => {
     const issues = issuesAfter((d) => {
       d.stages[0]!.elements[0]!.part['capacitance'] = '4.7 mH';
