@@ -10,6 +10,7 @@ export const MAX_LISTED_PROBLEMS = 30;
 /** Read a text file named on the command line, or fail with a message that names it. */
 export async function readInputFile(context: CommandContext, path: string, what: string): Promise<string> {
   if (path === '-') throw new CliError(`reading ${what} from standard input is not supported: give a file name`);
+  if (path === '') throw new CliError(`the file name of ${what} is empty`);
   try {
     return await context.io.readTextFile(path);
   } catch (error) {
