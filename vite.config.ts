@@ -30,6 +30,8 @@ export default defineConfig({
         test: {
           name: 'unit',
           environment: 'node',
+          // A limit for a hung test, not a speed check: the heavy property tests take seconds on a busy machine.
+          testTimeout: 60_000,
           include: ['test/**/*.test.ts'],
           exclude: ['test/ui/**', 'test/e2e/**'],
           setupFiles: ['test/support/fail-on-console.ts'],
@@ -40,6 +42,7 @@ export default defineConfig({
         test: {
           name: 'ui',
           environment: 'happy-dom',
+          testTimeout: 60_000,
           include: ['test/ui/**/*.test.ts'],
           setupFiles: ['test/support/fail-on-console.ts'],
         },
