@@ -29,7 +29,8 @@ export function textWidth(text: string, fontSizePx: number, bold = false): numbe
 export function wrapText(text: string, maxWidthPx: number, fontSizePx: number): string[] {
   const lines: string[] = [];
   let line = '';
-  for (const word of text.split(/\s+/u).filter((w) => w !== '')) {
+  // Split at ordinary white space only: a no-break space holds a value to its unit.
+  for (const word of text.split(/[ \t\n\r]+/u).filter((w) => w !== '')) {
     const candidate = line === '' ? word : `${line} ${word}`;
     if (textWidth(candidate, fontSizePx) <= maxWidthPx || line === '') {
       line = textWidth(candidate, fontSizePx) <= maxWidthPx ? candidate : truncateText(candidate, maxWidthPx, fontSizePx);
