@@ -1,4 +1,5 @@
 import { formatQuantity, type UnitSymbol } from '../model/units.ts';
+import { formatFrequency } from './frequency-ticks.ts';
 import { textWidth } from './text-metrics.ts';
 
 /**
@@ -51,7 +52,7 @@ function mantissaOf(value: number): number {
 }
 
 export function formatFrequencyLabel(hz: number): string {
-  return formatQuantity(hz, 'Hz', 3);
+  return formatFrequency(hz, 3);
 }
 
 /**

@@ -87,6 +87,10 @@ interface Column {
   /** The stage a column belongs to (for frames and titles), if any. */
   readonly stage?: { readonly index: number; readonly stage: Stage };
   readonly elementId?: string;
+  /** A stretch of plain wire that stays in the row of the column before it (never starts a row by choice). */
+  readonly sticky?: boolean;
+  /** The padding that opens a stage: it goes to the next row with the stage's first element. */
+  readonly leading?: boolean;
   draw(x: number, row: Row, context: DrawContext): SvgNode[];
 }
 
@@ -261,10 +265,12 @@ function elementColumn(element: FilterElement, stageIndex: number, stage: Stage)
 }
 
 /** Plain wires across all three conductors. */
-function wireColumn(width: number, stage?: { index: number; stage: Stage }, note?: string): Column {
+function wireColumn(width: number, stage?: { index: number; stage: Stage }, note?: string, leading = false): Column {
   return {
     width,
     ...(stage ? { stage } : {}),
+    sticky: note === undefined && !leading,
+    leading,
     draw(x, row, context) {
       const nodes = [wires(`${hline(x, x + width, row.line1)}${hline(x, x + width, row.line2)}${hline(x, x + width, row.ground)}`, context.colours.ink)];
       if (note) nodes.push(svgText('text', { x: x + width / 2, y: (row.line1 + row.line2) / 2 + 4, 'text-anchor': 'middle', 'font-size': SMALL_FONT, 'font-style': 'italic', fill: context.colours.muted }, note));
@@ -397,7 +403,7 @@ function columnsOf(design: Design): Column[] {
   design.stages.forEach((stage, index) => {
     const owner = { index, stage };
     const titleWidth = Math.max(textWidth(stageTitle(stage, index), ID_FONT, true), textWidth(stage.id, SMALL_FONT)) + 20;
-    const inner: Column[] = [wireColumn(8, owner)];
+    const inner: Column[] = [wireColumn(8, owner, undefined, true)];
     if (stage.elements.length === 0) inner.push(wireColumn(Math.max(100, titleWidth - 16), owner, 'no elements'));
     for (const element of stage.elements) inner.push(elementColumn(element, index, stage));
     const used = inner.reduce((sum, column) => sum + column.width, 0) + 8;
@@ -408,18 +414,29 @@ function columnsOf(design: Design): Column[] {
   return columns;
 }
 
-/** Greedy rows: as many columns as fit, keeping room for the connectors at a break. */
+/**
+ * Rows of about equal width: as many rows as the widest allowed row needs, each broken where the
+ * next column's middle would pass the row's share, so a long filter does not end in a row holding
+ * only the receivers. No row is wider than allowed (connectors included).
+ */
 function packRows(columns: readonly Column[], maxRowWidth: number | undefined): Column[][] {
-  if (maxRowWidth === undefined) return [columns.slice()];
+  const total = columns.reduce((sum, column) => sum + column.width, 0);
+  if (maxRowWidth === undefined || total + 2 * MARGIN <= maxRowWidth) return [columns.slice()];
+  const usable = maxRowWidth - 2 * MARGIN - 2 * CONNECTOR;
+  const count = Math.max(1, Math.ceil(total / Math.max(1, usable)));
+  const share = total / count;
   const rows: Column[][] = [];
   let current: Column[] = [];
   let used = 0;
   for (const column of columns) {
     const room = maxRowWidth - 2 * MARGIN - (rows.length > 0 ? CONNECTOR : 0) - CONNECTOR;
-    if (current.length > 0 && used + column.width > room) {
+    const pastShare = rows.length < count - 1 && used + column.width / 2 > share && column.sticky !== true;
+    if (current.length > 0 && (used + column.width > room || pastShare)) {
+      // A stage's opening padding moves down with its first element.
+      const carried = current.length > 1 && current[current.length - 1]!.leading ? current.pop()! : undefined;
       rows.push(current);
-      current = [];
-      used = 0;
+      current = carried ? [carried] : [];
+      used = carried ? carried.width : 0;
     }
     current.push(column);
     used += column.width;
