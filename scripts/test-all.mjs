@@ -17,7 +17,11 @@ const env = { ...process.env, NO_COLOR: '1', FORCE_COLOR: '0' };
 
 // The browser tests need Debian's Chromium and the simulator oracle needs ngspice. On a fresh
 // machine, as root (CI), install them; otherwise say what is missing and carry on.
-const missing = ['chromium', 'ngspice'].filter((tool) => spawnSync('sh', ['-c', `command -v ${tool}`]).status !== 0);
+// Each tool and the Debian package that brings it (poppler-utils: pdftoppm and pdftotext for the printed report).
+const TOOLS = { chromium: 'chromium', ngspice: 'ngspice', pdftoppm: 'poppler-utils' };
+const missing = Object.entries(TOOLS)
+  .filter(([tool]) => spawnSync('sh', ['-c', `command -v ${tool}`]).status !== 0)
+  .map(([, pkg]) => pkg);
 if (missing.length > 0) {
   if (process.getuid?.() === 0) {
     process.stdout.write(`=== installing ${missing.join(' and ')} (apt-get)\n`);
