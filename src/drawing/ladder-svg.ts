@@ -61,7 +61,7 @@ const VALUE_FONT = 11;
 const SMALL_FONT = 10.5;
 const MARGIN = 10;
 /** Row geometry, from the row's top. */
-const LINE1 = 70;
+const LINE1 = 80;
 const LINE_GAP = 96;
 const GROUND_GAP = 96;
 const CAPTION = 74;
@@ -308,7 +308,9 @@ function sourceColumn(design: Design): Column {
       const emfs = `${circleWithWave(xs, row.line1 + 24)}${circleWithWave(xs, row.line2 - 24)}${circleWithWave(xc, middle + 89)}`;
       const label = (text: string, lx: number, ly: number, anchor: 'start' | 'middle' | 'end' = 'middle') => svgText('text', { x: lx, y: ly, 'text-anchor': anchor, 'font-size': SMALL_FONT, fill: colours.muted }, text);
       const frameBottom = row.ground - 14;
-      const caption = captionLines(width - 12).slice(0, 4);
+      const all = captionLines(width - 12);
+      // Four lines at most; the design tables hold the rest.
+      const caption = all.length <= 4 ? all : [...all.slice(0, 3), truncateText(`${all[3]!}…`, width - 12, SMALL_FONT)];
       return [
         svg('rect', { x: x + 4, y: row.line1 - 44, width: width - 14, height: frameBottom - (row.line1 - 44), rx: 6, fill: 'none', stroke: colours.frame, 'stroke-dasharray': '5 4' }),
         svgText('text', { x: x + 12, y: row.line1 - 28, 'font-size': ID_FONT, 'font-weight': 650, fill: colours.text }, 'Noise source'),

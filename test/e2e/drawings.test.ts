@@ -129,4 +129,14 @@ describe('the drawn filter in Chromium', () => {
   });
 
 
+
+  it('an interactive drawing lets the keyboard reach every part, in design order', async () => {
+    await page.setContent(`<!doctype html><html><body>${ladderToSvg(demo, { interactive: true })}</body></html>`);
+    const reached: (string | null)[] = [];
+    for (let i = 0; i < 7; i += 1) {
+      await page.keyboard.press('Tab');
+      reached.push(await page.evaluate(() => document.activeElement?.getAttribute('data-element-id') ?? null));
+    }
+    expect(reached).toEqual(['CX1', 'CY1', 'CY2', 'LCM1', 'CX2', 'LCM2', 'CX3']);
+  });
 });
