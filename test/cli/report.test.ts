@@ -11,8 +11,7 @@ const SCAN = 'fixtures/scans/invented-adapter-no-filter.csv';
 const files = { [DEMO]: repoFile(DEMO), [SCAN]: repoFile(SCAN) };
 const run = (argv: string[]): Promise<CliRun> => runInMemory(argv, files);
 
-// Each case sweeps the demo and judges its scan: seconds on a busy machine, so a roomier time limit.
-describe('chokepoint report', { timeout: 30_000 }, () => {
+describe('chokepoint report', () => {
   it('writes the same page the page’s worker makes from the same design, scan and date', async () => {
     const result = await run(['report', DEMO, '--scan', SCAN, '--out', 'report.html', '--date', '2026-12-04']);
     expect(result.code).toBe(0);

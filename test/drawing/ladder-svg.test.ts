@@ -19,7 +19,7 @@ const demo = requireDesign(demoJson);
 
 const allIds = (design: Design) => design.stages.flatMap((stage) => stage.elements.map((element) => element.id));
 
-describe('ladderToSvg', { timeout: 20_000 }, () => {
+describe('ladderToSvg', () => {
   it.each([['demo', demo] as [string, Design], ...examples, ['one element', oneElementDesign()], ['twenty elements', twentyElementDesign()]])(
     'draws every element of %s exactly once, as a group with its id, in design order',
     (_name, design) => {

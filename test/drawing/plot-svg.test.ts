@@ -81,7 +81,7 @@ describe('axis scales and ticks', () => {
   });
 });
 
-describe('plotToSvg', { timeout: 20_000 }, () => {
+describe('plotToSvg', () => {
   it('places a known point by the log-frequency and linear mappings', () => {
     const f = new Float64Array([100e3, 1e6, 10e6, 100e6]);
     const spec = simpleSpec([line('a', f, new Float64Array([0, 50, 100, 25]))]);

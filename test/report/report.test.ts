@@ -27,7 +27,7 @@ const doc = parse(report.html);
 
 const numberIn = (cell: { getAttribute(name: string): string | null } | null | undefined): number => Number(cell?.getAttribute('data-value'));
 
-describe('the report of the demo with its scan', { timeout: 30_000 }, () => {
+describe('the report of the demo with its scan', () => {
   it('has every section', () => {
     for (const id of ['summary', 'design', 'filter', 'plots', 'margins', 'assumptions', 'checks', 'cautions', 'trace']) expect(doc.getElementById(id), id).not.toBeNull();
     expect([...doc.querySelectorAll('figure[data-plot-id]')].map((f) => f.getAttribute('data-plot-id'))).toEqual(['emissions', 'required-attenuation', 'insertion-loss', 'part-impedance']);
@@ -117,7 +117,7 @@ describe('the report of the demo with its scan', { timeout: 30_000 }, () => {
   });
 });
 
-describe('the report’s optional parts', { timeout: 30_000 }, () => {
+describe('the report’s optional parts', () => {
   const hostile = '<script>alert("x")</script> & =cmd|\' /C calc\'!A0';
 
   it('shows checks, assistants and a variant comparison when they are given, and escapes all user text', () => {
