@@ -1,4 +1,5 @@
 import type { BenchSection, Figure } from './bench-section.ts';
+import { drawingReportSection } from './sections/drawing-report.ts';
 import { kernelSection } from './sections/kernel.ts';
 
 /**
@@ -6,7 +7,7 @@ import { kernelSection } from './sections/kernel.ts';
  * one section per area (scripts/bench/sections/). A table for people, or with --json one flat JSON
  * object for comparing two versions key by key (DEVELOPERS.md, "Reading the benchmark").
  */
-const SECTIONS: readonly BenchSection[] = [kernelSection];
+const SECTIONS: readonly BenchSection[] = [kernelSection, drawingReportSection];
 
 const args = process.argv.slice(2);
 const asJson = args.includes('--json');
