@@ -145,7 +145,13 @@ export function drawPlot(spec: PlotSpec, options: PlotSvgOptions = {}): { node: 
     .map((level) => haloText(level.label, right - 4, y.position(level.value) - 4, font * 0.92, color(level.color), chrome.background, 'end'));
   if (levelLabels.length > 0) body.push(svg('g', { class: 'level-labels' }, levelLabels));
 
-  body.push(drawMarkers(spec.markers, x, y, plotRect, font, color, chrome));
+  const levelBoxes = spec.levels
+    .filter((level) => Number.isFinite(level.value) && level.value >= y.min && level.value <= y.max)
+    .map((level) => {
+      const ly = y.position(level.value) - 4;
+      return { left: right - 4 - textWidth(level.label, font * 0.92) - 2, right: right, top: ly - font, bottom: ly + 3 };
+    });
+  body.push(drawMarkers(spec.markers, x, y, plotRect, font, color, chrome, levelBoxes));
   body.push(frame(plotRect, chrome));
   body.push(axisLabels(spec, xTicks, yTicks, plotRect, baseHeight, font, chrome));
   if (showTitle) body.push(svgText('text', { x: 8, y: 10 + font * 1.25, 'font-size': font * 1.17, 'font-weight': 650, fill: chrome.text, class: 'plot-title' }, spec.title));
@@ -392,37 +398,60 @@ function markerShape(marker: PlotMarker, cx: number, cy: number, colour: string,
 
 /**
  * Markers over the curves: frequency-only marks sit at the top edge with a faint line down the plot.
- * Labels go beside their mark in the first of three rows where they clear the labels already placed,
- * and are left to the mark's tooltip when none is free.
+ * Labels go beside their mark where they cover no other mark or label, and are left to the mark's
+ * tooltip when there is no room.
  */
-function drawMarkers(markers: readonly PlotMarker[], x: Scale, y: Scale, plot: PlotLayout['plot'], font: number, color: (name: PlotColor) => string, chrome: (typeof CHROME)['light']): SvgNode {
+function drawMarkers(
+  markers: readonly PlotMarker[],
+  x: Scale,
+  y: Scale,
+  plot: PlotLayout['plot'],
+  font: number,
+  color: (name: PlotColor) => string,
+  chrome: (typeof CHROME)['light'],
+  taken: readonly { left: number; right: number; top: number; bottom: number }[],
+): SvgNode {
   const lines: SvgNode[] = [];
   const shapes: SvgNode[] = [];
   const labels: SvgNode[] = [];
-  const placed: { left: number; right: number; top: number; bottom: number }[] = [];
+  // Boxes no label may cover: other labels (the levels' first), and every mark.
+  const placed: { left: number; right: number; top: number; bottom: number }[] = [...taken];
   const size = font * 0.9;
   const sorted = [...markers].sort((a, b) => a.frequencyHz - b.frequencyHz);
+  const drawn: { marker: PlotMarker; cx: number; cy: number; onTop: boolean; colour: string }[] = [];
   for (const marker of sorted) {
     if (!(marker.frequencyHz >= x.min && marker.frequencyHz <= x.max)) continue;
     const cx = x.position(marker.frequencyHz);
     const onTop = marker.value === undefined || !Number.isFinite(marker.value);
-    if (!onTop && (y.kind === 'log' && !(marker.value! > 0))) continue;
+    if (!onTop && y.kind === 'log' && !(marker.value! > 0)) continue;
     const cy = onTop ? plot.top + 4 : y.position(marker.value!);
     if (cy < plot.top - 1 || cy > plot.bottom + 1) continue;
     const colour = color(marker.color);
     if (onTop) lines.push(svg('path', { d: `M${svgNumber(cx)} ${svgNumber(plot.top)}V${svgNumber(plot.bottom)}`, stroke: colour, 'stroke-opacity': 0.35, 'stroke-dasharray': '2 3', fill: 'none' }));
     shapes.push(svg('g', { class: 'marker', 'data-shape': marker.shape }, [svgText('title', {}, marker.label), markerShape(marker, cx, cy, colour, chrome.background)]));
+    // No label may cover a mark.
+    placed.push({ left: cx - 6, right: cx + 6, top: cy - 6, bottom: cy + 6 });
+    drawn.push({ marker, cx, cy, onTop, colour });
+  }
+  const free = (box: { left: number; right: number; top: number; bottom: number }): boolean =>
+    box.top >= plot.top && box.bottom <= plot.bottom && box.left >= plot.left && box.right <= plot.right && !placed.some((o) => box.left < o.right && box.right > o.left && box.top < o.bottom && box.bottom > o.top);
+  for (const { marker, cx, cy, onTop, colour } of drawn) {
     const widthPx = textWidth(marker.label, size);
-    for (let row = 0; row < 3; row += 1) {
-      const ly = onTop ? plot.top + 16 + row * (size + 3) : cy - 7 - row * (size + 3);
-      const rightSide = cx + 8 + widthPx <= plot.right;
-      const lx = rightSide ? cx + 8 : cx - 8 - widthPx;
-      const box = { left: lx - 2, right: lx + widthPx + 2, top: ly - size, bottom: ly + 2 };
-      if (box.top < plot.top || box.left < plot.left) continue;
-      if (placed.some((o) => box.left < o.right && box.right > o.left && box.top < o.bottom && box.bottom > o.top)) continue;
-      placed.push(box);
-      labels.push(haloText(marker.label, lx, ly, size, colour, chrome.background, 'start'));
-      break;
+    // A mark on a curve gets its label beside it, level with it, or none (its tooltip keeps it); a
+    // frequency-only mark at the top edge may stack its label in one of three rows below the edge.
+    const rows = onTop ? [0, 1, 2].map((row) => plot.top + 16 + row * (size + 3)) : [cy + size * 0.35];
+    let done = false;
+    for (const ly of rows) {
+      for (const side of ['right', 'left'] as const) {
+        const lx = side === 'right' ? cx + 8 : cx - 8 - widthPx;
+        const box = { left: lx - 2, right: lx + widthPx + 2, top: ly - size, bottom: ly + 3 };
+        if (!free(box)) continue;
+        placed.push(box);
+        labels.push(haloText(marker.label, lx, ly, size, colour, chrome.background, 'start'));
+        done = true;
+        break;
+      }
+      if (done) break;
     }
   }
   return svg('g', { class: 'markers' }, [...lines, ...shapes, ...labels]);
