@@ -212,4 +212,24 @@ describe('plotToSvg', () => {
     expect(layout.y.max - layout.y.min).toBeLessThan(120);
     expect(linearScale(0, 10, 100, 0).position(5)).toBe(50);
   });
+
+  it('puts a mark’s label beside it and never over another mark; crowded labels stay in the tooltip', () => {
+    const f = logGrid(100e3, 100e6, 10);
+    const markers = [1e6, 1.02e6, 1.04e6, 1.06e6].map((hz, i) => ({ frequencyHz: hz, value: 50, label: `mark ${i + 1}`, shape: 'circle' as const, color: 'worst' as const }));
+    const spec = simpleSpec([line('a', f, new Float64Array(10).fill(20))], { markers });
+    const { layout } = drawPlot(spec, { width: 700 });
+    const doc = parse(plotToSvg(spec, { width: 700 }));
+    const centres = markers.map((m) => layout.x.position(m.frequencyHz));
+    const labels = [...doc.querySelectorAll('.markers text')];
+    expect(labels.length).toBeGreaterThan(0);
+    expect(labels.length).toBeLessThan(4);
+    for (const label of labels) {
+      const x0 = Number(label.getAttribute('x'));
+      const y0 = Number(label.getAttribute('y'));
+      // Level with its mark (on the mark's row), and starting clear of every mark's circle (radius 5).
+      expect(Math.abs(y0 - (layout.y.position(50) + 12 * 0.9 * 0.35))).toBeLessThan(0.01);
+      for (const cx of centres) expect(x0 > cx + 5 || x0 + 30 < cx - 5).toBe(true);
+    }
+    expect(doc.querySelectorAll('.marker title')).toHaveLength(4);
+  });
 });
