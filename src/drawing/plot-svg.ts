@@ -13,7 +13,7 @@ import {
 } from './axis-ticks.ts';
 import { serializeSvg, svg, svgNumber, type SvgNode, svgText } from './svg-node.ts';
 import { textWidth, truncateText, wrapText } from './text-metrics.ts';
-import { thinToColumns } from './thin-series.ts';
+import { thinBandToColumns, type ThinnedBand, thinToColumns } from './thin-series.ts';
 
 /**
  * A PlotSpec drawn as SVG: the one renderer behind "save as SVG" and "save as PNG" on the page and
@@ -119,9 +119,7 @@ export function drawPlot(spec: PlotSpec, options: PlotSvgOptions = {}): { node: 
   const clipped: SvgNode[] = [];
   for (const band of spec.bands) {
     if (band.hidden) continue;
-    const upper = thinToColumns(band.frequencyHz, band.upper, 'max', x.position, left, right);
-    const lower = thinToColumns(band.frequencyHz, band.lower, 'min', x.position, left, right);
-    const d = bandPath(upper, lower, y);
+    const d = bandPath(thinBandToColumns(band.frequencyHz, band.lower, band.upper, x.position, left, right), y);
     if (d !== '') clipped.push(svg('path', { d, ...fillOf(color(band.color), 0.2), stroke: 'none', class: 'band' }, [svgText('title', {}, band.label)]));
   }
   for (const level of spec.levels) {
@@ -356,21 +354,22 @@ function nearestGap(xs: readonly number[], i: number): number {
   return gap > 0 ? gap : Infinity;
 }
 
-/** Closed outlines between the upper and lower curves, one per run without gaps. */
-function bandPath(upper: { x: number[]; values: number[] }, lower: { x: number[]; values: number[] }, y: Scale): string {
-  const n = Math.min(upper.x.length, lower.x.length);
+/** Closed outlines between the upper and lower edges, one per run without gaps. */
+function bandPath(band: ThinnedBand, y: Scale): string {
   const parts: string[] = [];
   let run: number[] = [];
   const close = (): void => {
     if (run.length >= 2) {
-      const top = run.map((i, k) => `${k === 0 ? 'M' : 'L'}${svgNumber(upper.x[i]!)} ${svgNumber(y.position(upper.values[i]!))}`);
-      const bottom = [...run].reverse().map((i) => `L${svgNumber(lower.x[i]!)} ${svgNumber(y.position(lower.values[i]!))}`);
+      const top = run.map((i, k) => `${k === 0 ? 'M' : 'L'}${svgNumber(band.x[i]!)} ${svgNumber(y.position(band.upper[i]!))}`);
+      const bottom = [...run].reverse().map((i) => `L${svgNumber(band.x[i]!)} ${svgNumber(y.position(band.lower[i]!))}`);
       parts.push(`${top.join('')}${bottom.join('')}Z`);
     }
     run = [];
   };
-  for (let i = 0; i < n; i += 1) {
-    const ok = Number.isFinite(upper.values[i]!) && Number.isFinite(lower.values[i]!) && Number.isFinite(upper.x[i]!) && (y.kind !== 'log' || (upper.values[i]! > 0 && lower.values[i]! > 0));
+  for (let i = 0; i < band.x.length; i += 1) {
+    const upper = band.upper[i]!;
+    const lower = band.lower[i]!;
+    const ok = Number.isFinite(upper) && Number.isFinite(lower) && (y.kind !== 'log' || (upper > 0 && lower > 0));
     if (ok) run.push(i);
     else close();
   }

@@ -73,3 +73,70 @@ export function thinToColumns(
   flush();
   return out;
 }
+
+export interface ThinnedBand {
+  readonly x: number[];
+  readonly upper: number[];
+  readonly lower: number[];
+}
+
+/**
+ * A band thinned the same way, both edges together so they stay paired: per pixel column the
+ * highest upper edge and the lowest lower edge (the band never looks narrower than it is), at the
+ * column's first point; a column where either edge has no finite value is a gap.
+ */
+export function thinBandToColumns(
+  frequencyHz: ArrayLike<number>,
+  lower: ArrayLike<number>,
+  upper: ArrayLike<number>,
+  position: (hz: number) => number,
+  left: number,
+  right: number,
+): ThinnedBand {
+  const n = Math.min(frequencyHz.length, lower.length, upper.length);
+  let start = 0;
+  while (start < n && !(position(frequencyHz[start]!) >= left)) start += 1;
+  let stop = n;
+  while (stop > start && !(position(frequencyHz[stop - 1]!) <= right)) stop -= 1;
+  const from = Math.max(0, start - 1);
+  const to = Math.min(n, stop + 1);
+  const out: ThinnedBand = { x: [], upper: [], lower: [] };
+  const columns = Math.max(1, Math.ceil(right - left));
+  const both = (i: number): boolean => Number.isFinite(lower[i]!) && Number.isFinite(upper[i]!);
+  if (to - from <= 2 * columns) {
+    for (let i = from; i < to; i += 1) {
+      out.x.push(position(frequencyHz[i]!));
+      out.upper.push(both(i) ? upper[i]! : Number.NaN);
+      out.lower.push(both(i) ? lower[i]! : Number.NaN);
+    }
+    return out;
+  }
+  let column = Number.NaN;
+  let x = 0;
+  let high = -Infinity;
+  let low = Infinity;
+  let any = false;
+  const flush = (): void => {
+    out.x.push(x);
+    out.upper.push(any ? high : Number.NaN);
+    out.lower.push(any ? low : Number.NaN);
+  };
+  for (let i = from; i < to; i += 1) {
+    const px = position(frequencyHz[i]!);
+    const c = Math.floor(px - left);
+    if (c !== column) {
+      if (i !== from) flush();
+      column = c;
+      x = px;
+      high = -Infinity;
+      low = Infinity;
+      any = false;
+    }
+    if (!both(i)) continue;
+    any = true;
+    if (upper[i]! > high) high = upper[i]!;
+    if (lower[i]! < low) low = lower[i]!;
+  }
+  flush();
+  return out;
+}

@@ -233,3 +233,24 @@ describe('plotToSvg', () => {
     expect(doc.querySelectorAll('.marker title')).toHaveLength(4);
   });
 });
+
+describe('thinBandToColumns', () => {
+  it('keeps both edges paired, the widest spread per column, and gaps where either edge is missing', async () => {
+    const { thinBandToColumns } = await import('../../src/drawing/thin-series.ts');
+    const n = 100_000;
+    const f = logGrid(1e5, 1e7, n);
+    const lower = new Float64Array(n).map((_, i) => -10 - (i === 40_000 ? 30 : 0));
+    const upper = new Float64Array(n).map((_, i) => (i > 70_000 && i < 72_000 ? Number.NaN : 10 + (i === 20_000 ? 25 : 0)));
+    const x = logScale(1e5, 1e7, 0, 200);
+    const band = thinBandToColumns(f, lower, upper, x.position, 0, 200);
+    expect(band.upper).toHaveLength(band.x.length);
+    expect(band.lower).toHaveLength(band.x.length);
+    expect(Math.max(...band.upper.filter(Number.isFinite))).toBe(35);
+    expect(Math.min(...band.lower.filter(Number.isFinite))).toBe(-40);
+    // The missing stretch of the upper edge leaves columns with no band at all, on both edges alike.
+    const gaps = band.upper.map((v, i) => Number.isNaN(v) === Number.isNaN(band.lower[i]!));
+    expect(gaps.every(Boolean)).toBe(true);
+    expect(band.upper.some(Number.isNaN)).toBe(true);
+    expect(band.x.length).toBeLessThanOrEqual(202);
+  });
+});
