@@ -2,10 +2,12 @@ import { describe, expect, it } from 'vitest';
 import { leakageCurrentA, maxCapacitanceForLeakageF } from '../../src/safety/leakage-current.ts';
 
 /**
- * I = 2π·f·C·V and its inverse against the computed rows of references.md §9 (given to 6 significant
- * figures; relative tolerance 1e-5). The limits used below (0.25 / 0.75 / 3.5 mA) are those of
- * IEC 60335-1 cl. 13.2 and IEC 60950-1 Table 5A as quoted by secondary sources; here they are only the
- * numbers fed to the formula.
+ * I = 2π·f·C·V and its inverse against the computed rows of references.md §9 and check case C13 of
+ * domain.md §6 (the formula evaluated by hand; given to 3–6 significant figures). The limits fed to
+ * the inverse (0.25 / 0.75 / 3.5 mA) are those of IEC 60335-1 cl. 13.2 (class II 0.25 mA, class I
+ * portable 0.75 mA, class I stationary motor-operated 3.5 mA) and IEC 60950-1 Table 5A (not earthed
+ * 0.25 mA, class I hand-held 0.75 mA, other class I pluggable type A 3.5 mA), values from secondary
+ * sources (a forum reproduction of the clause list, mailing-list posts quoting the table).
  */
 
 const nF = 1e-9;
@@ -29,6 +31,10 @@ describe('leakage current I = 2πfCV (references.md §9, computed rows)', () => 
     expectRelative(leakageCurrentA(4.7 * nF, 250, 50, 0.2), 1.2 * 0.369137 * mA);
   });
 
+  it('C13: 4.7 nF at 1.06 × 250 V, 50 Hz, +20 % carries 0.470 mA (test voltage 1.06 × rated, capacitor at its upper tolerance)', () => {
+    expectRelative(leakageCurrentA(4.7 * nF, 1.06 * 250, 50, 0.2), 0.47 * mA, 1e-3);
+  });
+
   it('is zero without capacitance and refuses nonsense', () => {
     expect(leakageCurrentA(0, 250, 50)).toBe(0);
     expect(() => leakageCurrentA(-1 * nF, 250, 50)).toThrow(RangeError);
@@ -39,14 +45,21 @@ describe('leakage current I = 2πfCV (references.md §9, computed rows)', () => 
 });
 
 describe('largest Y capacitance for a limit, C = I/(2πfV(1+tol)) (references.md §9, computed rows)', () => {
+  const CLASS_II = 'IEC 60335-1 cl. 13.2 class II, IEC 60950-1 Table 5A not earthed';
+  const PORTABLE = 'IEC 60335-1 cl. 13.2 class I portable, IEC 60950-1 Table 5A hand-held';
+  const PLUGGABLE = 'IEC 60950-1 Table 5A class I pluggable type A, IEC 60335-1 cl. 13.2 stationary motor-operated';
   it.each([
-    [0.25, 250, 50, 3.1831],
-    [0.25, 264, 60, 2.5119],
-    [0.75, 250, 50, 9.5493],
-    [3.5, 250, 50, 44.5634],
-    [3.5, 264, 60, 35.1668],
-  ])('%s mA at %s V, %s Hz allows %s nF', (limitMa, voltageV, frequencyHz, expectedNf) => {
+    [0.25, CLASS_II, 250, 50, 3.1831],
+    [0.25, CLASS_II, 264, 60, 2.5119],
+    [0.75, PORTABLE, 250, 50, 9.5493],
+    [3.5, PLUGGABLE, 250, 50, 44.5634],
+    [3.5, PLUGGABLE, 264, 60, 35.1668],
+  ])('%s mA (%s) at %s V, %s Hz allows %s nF', (limitMa, _source, voltageV, frequencyHz, expectedNf) => {
     expectRelative(maxCapacitanceForLeakageF(limitMa * mA, voltageV, frequencyHz), expectedNf * nF);
+  });
+
+  it('C13: 0.25 mA (IEC 60335-1 cl. 13.2 class II; IEC 60950-1 Table 5A not earthed) at 264 V, 60 Hz with +20 % allows 2.09 nF', () => {
+    expectRelative(maxCapacitanceForLeakageF(0.25 * mA, 264, 60, 0.2), 2.09 * nF, 2e-3);
   });
 
   it('shrinks by 1/(1 + tolerance) and round-trips through the current', () => {
