@@ -6,7 +6,7 @@
 export type Confirmation = 'published-text' | 'secondary-source' | 'not-confirmed' | 'common-practice';
 
 export const CONFIRMATION_WORDS: Readonly<Record<Confirmation, string>> = {
-  'published-text': 'from the published text of the standard (or a faithful reproduction of it)',
+  'published-text': 'from the published text of the standard or a faithful reproduction of it',
   'secondary-source': 'from a secondary source: check it against the standard before relying on it',
   'not-confirmed': 'not confirmed: quoted from memory; check it against the standard, do not rely on it as it is',
   'common-practice': 'common engineering practice, no single published source',

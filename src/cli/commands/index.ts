@@ -2,7 +2,8 @@ import type { Command } from '../command.ts';
 import { checkCommand } from './check.ts';
 import { limitsCommand } from './limits.ts';
 import { measuredPartCommand } from './measured-part.ts';
+import { safetyCommand } from './safety.ts';
 import { sweepCommand } from './sweep.ts';
 
 /** Every command, in the order the help lists them. A new command is one more entry here. */
-export const COMMANDS: readonly Command[] = [sweepCommand, checkCommand, limitsCommand, measuredPartCommand];
+export const COMMANDS: readonly Command[] = [sweepCommand, checkCommand, limitsCommand, measuredPartCommand, safetyCommand];

@@ -90,7 +90,7 @@ function capacitorFinding(placed: PlacedElement, supply: Supply): SafetyFinding 
         id,
         subject: element.id,
         title,
-        summary: `${nameOf(element)} (${part.safetyClass}) is rated ${formatFigure(rated, 'V')} AC for a working voltage of ${formatFigure(working, 'V')} rms (peak ${formatFigure(peak, 'V')} against ${formatFigure(Math.SQRT2 * rated, 'V')}): ${formatFigure(shareOf(working, rated), '%')} of its rating.${acWords(verdict, working)}`,
+        summary: `${nameOf(element)} is rated ${formatFigure(rated, 'V')} AC (${part.safetyClass}) for a working voltage of ${formatFigure(working, 'V')} rms (peak ${formatFigure(peak, 'V')} against ${formatFigure(Math.SQRT2 * rated, 'V')}): ${formatFigure(shareOf(working, rated), '%')} of its rating.${acWords(verdict, working)}`,
       },
       [figure('working voltage (rms)', working, 'V'), figure('rated voltage (AC rms)', rated, 'V'), stress, figure('rating as a peak', Math.SQRT2 * rated, 'V'), figure('share of the rating', shareOf(working, rated), '%')],
     );
