@@ -78,6 +78,16 @@ describe('chokepoint safety', () => {
     expect(result.stderr).toMatch(message);
   });
 
+  it('the example output in docs/cli.md is what the fixture prints', async () => {
+    const doc = file('docs/cli.md');
+    const block = /The first example prints, in part:\n\n```text\n([\s\S]*?)```/u.exec(doc)?.[1];
+    expect(block).toBeDefined();
+    const result = await run(['safety', FIXTURE]);
+    const shown = block!.split('\n').filter((line) => line.trim() !== '' && line.trim() !== '…');
+    expect(shown.length).toBeGreaterThan(5);
+    for (const line of shown) expect(result.stdout).toContain(line.replace(/ …$/u, ''));
+  });
+
   it('the help lists the limits and requirements with their standards', async () => {
     const result = await run(['help', 'safety']);
     expect(result.code).toBe(0);
