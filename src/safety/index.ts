@@ -2,7 +2,7 @@
  * The safety checks' public surface (docs/safety.md). DOM-free: runs unchanged in Node, a worker
  * and the tests. The page imports types from here only; the numbers come from a worker.
  */
-export { runSafetyChecks, safetyCheckOptionsSchema, type SafetyCheckOptions, type SafetyOutcome, type SafetyReport, type SafetySupplySummary } from './run-safety-checks.ts';
+export { largestYCapacitanceForDesign, runSafetyChecks, safetyCheckOptionsSchema, type SafetyCheckOptions, type SafetyOutcome, type SafetyReport, type SafetySupplySummary } from './run-safety-checks.ts';
 export {
   CHECK_TITLES,
   SAFETY_CHECK_IDS,

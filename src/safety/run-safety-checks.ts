@@ -9,7 +9,7 @@ import { leakageCheck } from './checks/leakage-check.ts';
 import { saturationCheck } from './checks/saturation-check.ts';
 import { voltageCheck } from './checks/voltage-check.ts';
 import { windingsCheck } from './checks/windings-check.ts';
-import type { LargestYCapacitance } from './leakage-cases.ts';
+import { type LargestYCapacitance, largestYCapacitance } from './leakage-cases.ts';
 import { type ResolvedChoices, resolveChoices } from './safety-choices.ts';
 import { CHECK_TITLES, type FindingStatus, SAFETY_CHECK_IDS, type SafetyCheckId, type SafetyCheckResult } from './safety-finding.ts';
 
@@ -113,4 +113,21 @@ export function runSafetyChecks(design: Design, options: SafetyCheckOptions = {}
     ...(largestY ? { largestYCapacitance: largestY } : {}),
     cautions: cautionsFor(supply),
   };
+}
+
+/**
+ * The largest Y capacitance within the design's leakage limit at its highest mains voltage and
+ * frequency, for the sizing assistant: undefined (with the reason) when the supply is not AC mains or
+ * no limit is chosen. `choices` override the design's safety block as for runSafetyChecks.
+ */
+export function largestYCapacitanceForDesign(
+  design: Design,
+  choices?: SafetyChoices,
+): { readonly ok: true; readonly value: LargestYCapacitance } | { readonly ok: false; readonly missing: string } {
+  const resolved = resolveChoices(design, choices);
+  const supply = design.operating?.supply;
+  if (supply === undefined) return { ok: false, missing: 'operating.supply' };
+  if (supply.kind !== 'ac-mains') return { ok: false, missing: 'operating.supply of kind "ac-mains" (a DC input has no mains leakage)' };
+  if (resolved.leakageLimit === undefined) return { ok: false, missing: 'safety.leakageLimit' };
+  return { ok: true, value: largestYCapacitance(resolved.leakageLimit, supply.highestVoltage, supply.highestFrequencyHz, resolved.capacitorTolerance.value) };
 }

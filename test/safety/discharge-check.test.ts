@@ -67,6 +67,10 @@ describe('X-capacitor discharge', () => {
     expect(finding(runSafetyChecks(safetyDesign({ elements: [xCap('CX1', '100n'), xCap('CX2', '100n')], supply: MAINS_230_50, safety: { discharge: tau1s } })), 'discharge.plug').status).toBe('fail');
   });
 
+  it('a zero-ohm resistor across the lines is a short, not a bleeder', () => {
+    expect(finding(runSafetyChecks(safetyDesign({ elements: [xCap('CX1', 1 * uF), bleeder('R0', 0)], supply: MAINS_230_50, safety: { discharge: tau1s } })), 'discharge.plug').status).toBe('fail');
+  });
+
   it('an external bleed resistance counts in parallel with the design’s own', () => {
     const plug = finding(
       runSafetyChecks(safetyDesign({ elements: [xCap('CX1', 1 * uF), bleeder('RB1', 2e6)], supply: MAINS_230_50, safety: { discharge: tau1s, capacitorTolerance: 0, externalBleedResistance: '2meg' } })),

@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { DesignInput } from '../../src/model/design.ts';
 import { readDesignJson, requireDesign } from '../../src/model/read-design.ts';
-import { CONFIRMATION_WORDS, LEAKAGE_LIMITS, DISCHARGE_REQUIREMENTS, runSafetyChecks, SAFETY_CHECK_IDS, safetyCheckOptionsSchema, type SafetyReport } from '../../src/safety/index.ts';
+import { CONFIRMATION_WORDS, LEAKAGE_LIMITS, DISCHARGE_REQUIREMENTS, largestYCapacitanceForDesign, runSafetyChecks, SAFETY_CHECK_IDS, safetyCheckOptionsSchema, type SafetyReport } from '../../src/safety/index.ts';
 import { DISCHARGE_REQUIREMENT_IDS, LEAKAGE_LIMIT_IDS } from '../../src/model/safety-schema.ts';
 import { propertySettings } from '../support/property-settings.ts';
 import { randomDesign } from '../support/random-designs.ts';
@@ -74,6 +74,14 @@ describe('runSafetyChecks', () => {
     expect(report.choices.leakageLimit?.id).toBe('iec60335-1-class-ii');
     expect(runSafetyChecks(design).choices.capacitorTolerance).toEqual({ value: 0.1, given: true });
     expect(runSafetyChecks(safetyDesign({ elements: [], supply: MAINS_250_50 })).choices.capacitorTolerance).toEqual({ value: 0.2, given: false });
+  });
+
+  it('gives the sizing assistant the largest Y capacitance, or what is missing (0.75 mA, IEC 60335-1 cl. 13.2 class I portable, 250 V 50 Hz: 9.5493 nF per line)', () => {
+    const design = safetyDesign({ elements: [], supply: MAINS_250_50, safety: { leakageLimit: { kind: 'listed-limit', id: 'iec60335-1-class-i-portable' }, capacitorTolerance: 0 } });
+    const largest = largestYCapacitanceForDesign(design);
+    expect(largest.ok && largest.value.perLineF).toBeCloseTo(9.5493e-9, 13);
+    expect(largestYCapacitanceForDesign(safetyDesign({ elements: [], supply: MAINS_250_50 }))).toEqual({ ok: false, missing: 'safety.leakageLimit' });
+    expect(largestYCapacitanceForDesign(safetyDesign({ elements: [] }))).toEqual({ ok: false, missing: 'operating.supply' });
   });
 
   it('the options schema validates what a worker receives', () => {

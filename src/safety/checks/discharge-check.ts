@@ -160,10 +160,16 @@ export function dischargeCheck(ctx: CheckContext): SafetyCheckResult {
       assumptions,
     );
   }
+  if (bleedOhm === 0) {
+    return finish(
+      [judged('fail', { id, title, summary: 'A zero-ohm resistor across the lines shorts the supply: a bleeder must be a resistance that holds the mains voltage.', sources }, [figure('bleed resistance', 0, 'Ω')])],
+      assumptions,
+    );
+  }
   const names = [...own.map((p) => nameOf(p.element)), ...(external === undefined ? [] : ['the external bleed resistance'])];
   assumptions.push(`Bleeding the pins: ${names.join(', ')}${names.length > 1 ? ', in parallel' : ''}. A bleeder holds the full mains voltage: use parts (or a series string) rated for it, and no switch between it and the capacitors.`);
   const tauS = bleedOhm * worstCapacitanceF;
-  const powerW = bleedOhm === 0 ? Number.POSITIVE_INFINITY : bleederPowerW(voltageV, bleedOhm);
+  const powerW = bleederPowerW(voltageV, bleedOhm);
   const within = bleedOhm <= maxR * ON_THE_BOUND;
   const ownFigures: SafetyFigure[] = [figure('bleed resistance', bleedOhm, 'Ω'), figure('time constant', tauS, 's'), figure('bleeder dissipation', powerW, 'W')];
   if (rule.kind === 'residual-voltage') ownFigures.push(figure(`voltage after ${formatFigure(rule.afterS, 's')}`, residualVoltageV(peakV, tauS, rule.afterS), 'V'));
