@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { emissionsFields } from './emissions-schema.ts';
 import { optionalQuantity, quantity, quantityOr } from './quantity-field.ts';
+import { partCoreSchema, safetySchema } from './safety-schema.ts';
 
 /**
  * The design file, version 2. Every physical value is SI (H, F, Ω, Hz, V, A) when written as a
@@ -36,7 +37,7 @@ export const capacitorSchema = z.strictObject({
   capacitance: quantity('F'),
   esr: quantityOr(0, 'Ω'),
   esl: quantityOr(0, 'H'),
-  safetyClass: z.enum(['X1', 'X2', 'Y1', 'Y2', 'none']).default('none'),
+  safetyClass: z.enum(['X1', 'X2', 'Y1', 'Y2', 'Y4', 'none']).default('none'),
   ratedVoltage: optionalQuantity('V'),
 });
 
@@ -48,6 +49,8 @@ export const inductorSchema = z.strictObject({
   coreLoss: coreLossSchema.default({ kind: 'none' }),
   permeability: permeabilitySchema.default({ kind: 'constant' }),
   ratedCurrent: optionalQuantity('A'),
+  /** Core data for the saturation check (version 2). */
+  core: partCoreSchema.optional(),
 });
 
 export const resistorSchema = z.strictObject({
@@ -148,6 +151,8 @@ export const commonModeChokeSchema = z.strictObject({
   permeability: permeabilitySchema.default({ kind: 'constant' }),
   ratedCurrent: optionalQuantity('A'),
   ratedVoltage: optionalQuantity('V'),
+  /** Core data for the saturation check (version 2). */
+  core: partCoreSchema.optional(),
 });
 
 export const partSchema = z.discriminatedUnion('kind', [
@@ -341,6 +346,8 @@ export const designSchema = z
     emissions: emissionsSchema.optional(),
     /** Supply, line current and converter (version 2); absent until used. */
     operating: operatingSchema.optional(),
+    /** The safety checks' choices: leakage limit, discharge requirement, tolerances (version 2); absent until used. */
+    safety: safetySchema.optional(),
   })
   .superRefine((design, ctx) => {
     const seen = new Map<string, string>();

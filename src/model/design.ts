@@ -25,6 +25,7 @@ import type {
   supplySchema,
 } from './design-schema.ts';
 import type { limitMaskSchema, noiseEstimateSchema, bandSchema, trapezoidSchema } from './emissions-schema.ts';
+import type { biasCurveSchema, dischargeRequirementSchema, leakageLimitSchema, partCoreSchema, safetySchema } from './safety-schema.ts';
 
 /** A design after validation: every physical value is an SI number, defaults filled in. */
 export type Design = z.output<typeof designSchema>;
@@ -59,3 +60,9 @@ export type LimitMaskInput = z.input<typeof limitMaskSchema>;
 export type NoiseEstimate = z.output<typeof noiseEstimateSchema>;
 export type Band = z.output<typeof bandSchema>;
 export type Trapezoid = z.output<typeof trapezoidSchema>;
+export type SafetyChoices = z.output<typeof safetySchema>;
+export type SafetyChoicesInput = z.input<typeof safetySchema>;
+export type LeakageLimitChoice = z.output<typeof leakageLimitSchema>;
+export type DischargeRequirementChoice = z.output<typeof dischargeRequirementSchema>;
+export type PartCore = z.output<typeof partCoreSchema>;
+export type BiasCurve = z.output<typeof biasCurveSchema>;

@@ -362,6 +362,7 @@ describe('docs/design-format.md documents the design schema', () => {
         'none', 'parallel-resistance', 'quality-factor', 'constant', 'first-order-relaxation', 'leakage-inductance',
         'coupling-factor', 'cispr16-mains-50uh', 'vehicle-5uh', 'resistive', 'custom',
         'stages', 'pulsed', 'triangular-ripple', 'ac-mains', 'dc',
+        'listed-limit', 'entered-limit', 'listed-requirement', 'time-constant', 'residual-voltage',
       ]),
     );
     expect(schema.choices.get('placement')).toEqual(new Set(PLACEMENTS));
