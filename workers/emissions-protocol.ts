@@ -80,13 +80,30 @@ const scanSchema = z
     });
   });
 
+/** How the page names a scan it has given the worker. */
+export const scanIdSchema = z.string().min(1).max(100);
+
+/** The worker keeps at most this many scans for later analyses; the oldest goes first. */
+export const MAX_STORED_SCANS = 8;
+
+export const storeScanRequestSchema = z.strictObject({ scanId: scanIdSchema, scan: scanSchema });
+export type StoreScanRequest = z.input<typeof storeScanRequestSchema>;
+export type StoreScanReply = { readonly ok: true; readonly stored: number } | { readonly ok: false; readonly message: string };
+
 export const emissionsRequestSchema = z.strictObject({
   /** Chosen by the caller, rising; echoed back so a reply can be matched to its request. */
   requestId: z.number().int('a request id is a whole number').nonnegative('a request id is 0 or more'),
   /** A design document, validated by the worker exactly as a file would be. */
   design: z.unknown(),
-  /** The noise: an imported scan, or the design's own estimate (emissions.estimate). */
-  noise: z.discriminatedUnion('kind', [z.strictObject({ kind: z.literal('estimate') }), z.strictObject({ kind: z.literal('scan'), scan: scanSchema })]),
+  /**
+   * The noise: an imported scan, one the worker was given earlier (storeScan: a million-row scan is
+   * not copied across for every edit), or the design's own estimate (emissions.estimate).
+   */
+  noise: z.discriminatedUnion('kind', [
+    z.strictObject({ kind: z.literal('estimate') }),
+    z.strictObject({ kind: z.literal('scan'), scan: scanSchema }),
+    z.strictObject({ kind: z.literal('stored-scan'), scanId: scanIdSchema }),
+  ]),
   /** Overrides of the design's own emissions settings, for a what-if that is not saved in the design. */
   options: z
     .strictObject({

@@ -4,16 +4,44 @@ import { formatIssue, readDesign, toValidationIssue, type ValidationIssue } from
 import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../src/spectrum/emissions-analysis.ts';
 import { estimateIssues } from '../src/spectrum/noise-estimate.ts';
 import type { Scan } from '../src/spectrum/spectrum-types.ts';
-import { type EmissionsFailure, type EmissionsFailureKind, type EmissionsReply, emissionsRequestSchema } from './emissions-protocol.ts';
+import {
+  type EmissionsFailure,
+  type EmissionsFailureKind,
+  type EmissionsReply,
+  emissionsRequestSchema,
+  MAX_STORED_SCANS,
+  type StoreScanReply,
+  storeScanRequestSchema,
+} from './emissions-protocol.ts';
 import { type SweepFailure, type SweepFailureKind, type SweepReply, sweepRequestSchema } from './sweep-protocol.ts';
 import { collectTransferables } from './transferables.ts';
 
 /**
- * The object the sweep worker exposes. It holds no DOM and no state, so tests call it directly
- * or over a MessageChannel. Bad input comes back as `{ ok: false }`: a throw would surface on
- * the main thread as an opaque rejected promise without field paths.
+ * Scans the page has handed over once, by the page's id, so that each later analysis names the scan
+ * instead of copying a million rows across again. Oldest first; at most MAX_STORED_SCANS.
+ */
+const storedScans = new Map<string, Scan>();
+
+/**
+ * The object the sweep worker exposes. It holds no DOM and no state but the stored scans, so tests
+ * call it directly or over a MessageChannel. Bad input comes back as `{ ok: false }`: a throw would
+ * surface on the main thread as an opaque rejected promise without field paths.
  */
 export const sweepApi = {
+  /** Keep a scan for later analyses (noise `{ kind: 'stored-scan', scanId }`). */
+  storeScan(request: unknown): StoreScanReply {
+    const parsed = storeScanRequestSchema.safeParse(request, { reportInput: true });
+    if (!parsed.success) return { ok: false, message: `invalid scan: ${parsed.error.issues.map((issue) => formatIssue(toValidationIssue(issue))).join('; ')}` };
+    storedScans.delete(parsed.data.scanId);
+    storedScans.set(parsed.data.scanId, parsed.data.scan);
+    while (storedScans.size > MAX_STORED_SCANS) storedScans.delete(storedScans.keys().next().value!);
+    return { ok: true, stored: storedScans.size };
+  },
+
+  forgetScan(scanId: unknown): boolean {
+    return typeof scanId === 'string' && storedScans.delete(scanId);
+  },
+
   sweep(request: unknown): SweepReply {
     const started = performance.now();
     const parsed = sweepRequestSchema.safeParse(request, { reportInput: true });
@@ -59,6 +87,14 @@ export const sweepApi = {
     let input: NoiseInput;
     if (noise.kind === 'scan') {
       const scan: Scan = noise.scan;
+      input = { kind: 'scan', scan };
+    } else if (noise.kind === 'stored-scan') {
+      const scan = storedScans.get(noise.scanId);
+      if (!scan) {
+        return emissionsFailure(requestId, 'invalid-request', 'no such scan', [
+          { path: 'noise.scanId', code: 'invalid-value', message: `the worker holds no scan "${noise.scanId}"; store it first` },
+        ]);
+      }
       input = { kind: 'scan', scan };
     } else {
       if (!estimate || (!estimate.commonMode && !estimate.differentialMode)) {

@@ -112,3 +112,43 @@ export function idPrefix(kind: PartKind, placement: Placement): string {
       return 'Z';
   }
 }
+
+/**
+ * What a nested object of a kind holds when the engineer picks that kind in an editor (a new
+ * permeability model, a coupling, a receiving network, a supply). Plausible starting values, invented.
+ * Kinds not listed here start with only their `kind` (their required fields are then marked until filled).
+ */
+const KIND_DEFAULTS: Readonly<Record<string, JsonObject>> = {
+  constant: { kind: 'constant' },
+  'first-order-relaxation': { kind: 'first-order-relaxation', relaxationFrequencyHz: '1 MHz' },
+  none: { kind: 'none' },
+  'parallel-resistance': { kind: 'parallel-resistance', resistance: '10 kOhm' },
+  'quality-factor': { kind: 'quality-factor', qualityFactor: 50, atFrequencyHz: '100 kHz' },
+  'leakage-inductance': { kind: 'leakage-inductance', leakageInductance: '10 uH' },
+  'coupling-factor': { kind: 'coupling-factor', couplingFactor: 0.99 },
+  'cispr16-mains-50uh': { kind: 'cispr16-mains-50uh' },
+  'vehicle-5uh': { kind: 'vehicle-5uh' },
+  resistive: { kind: 'resistive', resistance: '50' },
+  custom: { kind: 'custom', impedance: { kind: 'resistor', resistance: '50' } },
+  pulsed: { kind: 'pulsed', pulse: { amplitude: '3 A', frequencyHz: '100 kHz', duty: 0.5, riseTime: '20 ns' } },
+  'triangular-ripple': { kind: 'triangular-ripple', peakToPeak: '1 A', frequencyHz: '100 kHz', riseFraction: 0.5 },
+  'ac-mains': { kind: 'ac-mains', highestVoltage: '264 V', highestFrequencyHz: '60 Hz' },
+  dc: { kind: 'dc', highestVoltage: '48 V' },
+  stages: { kind: 'stages', stages: [] },
+};
+
+const PART_KINDS: readonly PartKind[] = ['capacitor', 'inductor', 'resistor', 'ferrite-bead', 'damping-rc', 'damping-rl', 'measured', 'common-mode-choke'];
+
+/** A new object of `kind` for an editor's kind choice; a part kind gets its default part. */
+export function defaultForKind(kind: string): JsonObject {
+  if ((PART_KINDS as readonly string[]).includes(kind)) return defaultPart(kind as PartKind, 'series-line1');
+  return KIND_DEFAULTS[kind] ?? { kind };
+}
+
+/** A new optional object an editor adds (a noise estimate's CM or DM part, a converter). */
+export const OBJECT_DEFAULTS: Readonly<Record<string, JsonObject>> = {
+  'emissions.estimate.commonMode': { switchNode: { amplitude: '400 V', frequencyHz: '65 kHz', duty: 0.4, riseTime: '20 ns' }, parasiticCapacitance: '30 pF' },
+  'emissions.estimate.differentialMode': { current: { kind: 'triangular-ripple', peakToPeak: '1 A', frequencyHz: '65 kHz', riseFraction: 0.4 }, inputCapacitance: '100 uF', esr: '0.2' },
+  'operating.converter': { lowestInputVoltage: '90 V', highestInputPower: '100 W' },
+  'operating.supply': { kind: 'ac-mains', highestVoltage: '264 V', highestFrequencyHz: '60 Hz' },
+};

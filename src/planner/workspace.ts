@@ -40,6 +40,8 @@ export interface ScanEntry {
   readonly notes: readonly string[];
   /** Data lines the reader left out, counted (their details stay with the scan). */
   readonly rejectedLines: number;
+  /** The built-in invented demo scan, labelled as such wherever it is shown. */
+  readonly invented: boolean;
 }
 
 export type NoiseChoice = { readonly kind: 'estimate' } | { readonly kind: 'scan'; readonly scanId: string };

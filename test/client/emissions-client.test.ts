@@ -166,7 +166,7 @@ describe('EmissionsClient over a message channel', () => {
     ports.push(port1, port2);
     const seen: number[] = [];
     const api: SweepApi = {
-      sweep: sweepApi.sweep,
+      ...sweepApi,
       analyzeEmissions(request) {
         const reply = sweepApi.analyzeEmissions(request);
         if (reply.ok) seen.push(reply.analysis.report.targetMarginDb);

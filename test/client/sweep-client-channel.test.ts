@@ -29,6 +29,7 @@ function connect(api: SweepApi): SweepClient {
 function recordingApi(): { api: SweepApi; sent: SweepReply[] } {
   const sent: SweepReply[] = [];
   const api: SweepApi = {
+    ...sweepApi,
     sweep(request) {
       const reply = sweepApi.sweep(request);
       sent.push(reply);

@@ -168,7 +168,7 @@ describe('analyzeEmissions over a message channel', () => {
     ports.push(port1, port2);
     const sent: EmissionsReply[] = [];
     const api: SweepApi = {
-      sweep: sweepApi.sweep,
+      ...sweepApi,
       analyzeEmissions(request) {
         const reply = sweepApi.analyzeEmissions(request);
         sent.push(reply);
@@ -189,5 +189,31 @@ describe('analyzeEmissions over a message channel', () => {
     // The scan went over as a copy: the page still has its own.
     expect(pageScan.frequencyHz.byteLength).toBeGreaterThan(0);
     remote[Comlink.releaseProxy]();
+  });
+});
+
+describe('sweepApi.storeScan: a scan handed over once, analysed by name', () => {
+  it('gives the same analysis as sending the scan itself', () => {
+    expect(sweepApi.storeScan({ scanId: 'scan-a', scan: scan() })).toEqual({ ok: true, stored: expect.any(Number) });
+    const byName = expectSuccess(sweepApi.analyzeEmissions({ requestId: 40, design: demo, noise: { kind: 'stored-scan', scanId: 'scan-a' } }));
+    const sent = expectSuccess(sweepApi.analyzeEmissions({ requestId: 41, design: demo, noise: { kind: 'scan', scan: scan() } }));
+    expect(byName.analysis.report.worst).toEqual(sent.analysis.report.worst);
+    expect(Array.from(byName.analysis.predicted[0]!.levelDbuV)).toEqual(Array.from(sent.analysis.predicted[0]!.levelDbuV));
+  });
+
+  it('refuses an unknown scan id, and a malformed scan, with the field named', () => {
+    const unknown = expectFailure(sweepApi.analyzeEmissions({ requestId: 42, design: demo, noise: { kind: 'stored-scan', scanId: 'never-stored' } }));
+    expect(unknown.error.issues[0]).toMatchObject({ path: 'noise.scanId' });
+    const bad = sweepApi.storeScan({ scanId: 'x', scan: { ...scan(), traces: [] } });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(bad.message).toMatch(/traces/u);
+  });
+
+  it('keeps at most eight, dropping the oldest; a forgotten scan is gone', () => {
+    for (let k = 0; k < 10; k += 1) sweepApi.storeScan({ scanId: `many-${k}`, scan: scan() });
+    expect(expectFailure(sweepApi.analyzeEmissions({ requestId: 43, design: demo, noise: { kind: 'stored-scan', scanId: 'many-0' } })).error.kind).toBe('invalid-request');
+    expectSuccess(sweepApi.analyzeEmissions({ requestId: 44, design: demo, noise: { kind: 'stored-scan', scanId: 'many-9' } }));
+    expect(sweepApi.forgetScan('many-9')).toBe(true);
+    expect(sweepApi.forgetScan('many-9')).toBe(false);
   });
 });

@@ -205,11 +205,13 @@ export function renameItem(document: JsonObject, oldId: string, change: { readon
     if (usedIds(document).has(change.id)) return { ok: false, reason: `id "${change.id}" is already used` };
     next = setAt(next, [...base, 'id'], change.id) as JsonObject;
   }
+  const renamed = change.id !== undefined && change.id !== oldId ? [change.id] : undefined;
   if (change.label !== undefined) {
     if (change.label.length > 200) return { ok: false, reason: 'a label holds at most 200 characters' };
     next = setAt(next, [...base, 'label'], change.label.trim() === '' ? undefined : change.label) as JsonObject;
   }
-  return { ok: true, document: next };
+  // A renamed item stays selected under its new id.
+  return renamed ? { ok: true, document: next, created: renamed } : { ok: true, document: next };
 }
 
 /** Give an element a new part of another kind (default values), moving it to a placement that suits the kind. */

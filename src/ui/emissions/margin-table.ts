@@ -1,8 +1,5 @@
 import { css, html, LitElement, nothing } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
-import type { PlotFactory } from '../charts/chart-controller.ts';
-import type { PlotSource } from '../charts/plot-controller.ts';
-import '../charts/plot-element.ts';
 import { sharedStyles } from '../styles/theme.ts';
 import type { MarginPointView, MarginTableView } from './margin-view.ts';
 
@@ -126,15 +123,20 @@ export class MarginTable extends LitElement {
       .star {
         color: var(--cp-muted);
       }
+      button.at {
+        font: inherit;
+        font-variant-numeric: tabular-nums;
+        padding: 0;
+        border: none;
+        background: none;
+        color: var(--cp-accent);
+        text-decoration: underline dotted;
+        cursor: pointer;
+      }
     `,
   ];
 
   @property({ attribute: false }) view: MarginTableView | undefined;
-
-  /** The small chart of the attenuation still needed; undefined when there is none. */
-  @property({ attribute: false }) required: PlotSource | undefined;
-  @property() requiredLabel = '';
-  @property({ attribute: false }) createPlot: PlotFactory | undefined;
 
   override render() {
     const view = this.view;
@@ -214,7 +216,7 @@ export class MarginTable extends LitElement {
                       <td class="num">${range.from}</td>
                       <td class="num">${range.to}</td>
                       <td class="num margin ${range.worst.short ? 'short' : ''}">${range.worst.margin}</td>
-                      <td class="num">${range.worst.frequency}</td>
+                      <td class="num">${this.at(range.worst)}</td>
                       <td>${this.which(range.worst)}</td>
                     </tr>`,
                   )}
@@ -232,9 +234,6 @@ export class MarginTable extends LitElement {
               <dd class="muted">${row.where}</dd>`,
           )}
         </dl>
-        ${this.required
-          ? html`<chokepoint-plot .source=${this.required} .createPlot=${this.createPlot} label=${this.requiredLabel}></chokepoint-plot>`
-          : nothing}
       </section>
 
       ${view.notes.length > 0 || view.anyConservative
@@ -257,11 +256,23 @@ export class MarginTable extends LitElement {
   private pointCells(point: MarginPointView) {
     return html`
       <td class="num margin ${point.short ? 'short' : ''}">${point.margin}</td>
-      <td class="num">${point.frequency}</td>
+      <td class="num">${this.at(point)}</td>
       <td class="num">${point.level}</td>
       <td class="num">${point.limit}</td>
       <td>${this.which(point)}</td>
     `;
+  }
+
+  /** The frequency as a button: it moves the plots' shared cursor there. */
+  private at(point: MarginPointView) {
+    return html`<button
+      type="button"
+      class="at"
+      title="Show ${point.frequency} on the plots"
+      @click=${() => this.dispatchEvent(new CustomEvent('cursor-move', { detail: { frequencyHz: point.frequencyHz }, bubbles: true, composed: true }))}
+    >
+      ${point.frequency}
+    </button>`;
   }
 
   private which(point: MarginPointView) {

@@ -11,6 +11,8 @@ export type Verdict = 'pass' | 'fail' | 'none';
 
 export interface MarginPointView {
   readonly frequency: string;
+  /** Where the point is, for moving the plots' cursor to it. */
+  readonly frequencyHz: number;
   readonly level: string;
   readonly limit: string;
   readonly margin: string;
@@ -69,6 +71,7 @@ export function formatDb(value: number, unit = 'dB'): string {
 function pointView(point: MarginPoint, targetMarginDb: number): MarginPointView {
   return {
     frequency: formatFrequency(point.frequencyHz, 4),
+    frequencyHz: point.frequencyHz,
     level: formatDb(point.levelDbuV, 'dBµV'),
     limit: formatDb(point.limitDbuV, 'dBµV'),
     margin: formatDb(point.marginDb),

@@ -15,6 +15,12 @@ export const themeTokens = css`
     --cp-border: #d5dae0;
     --cp-rule: #e8ebef;
     --cp-accent: #1f5fa8;
+    --cp-on-accent: #ffffff;
+    --cp-selected-bg: #e4eefa;
+    --cp-input-bg: #ffffff;
+    --cp-input-border: #b9c0c8;
+    --cp-button-bg: #f7f9fb;
+    --cp-button-hover: #eaf0f6;
     --cp-invented-bg: #fff1c9;
     --cp-invented-text: #5c4300;
     --cp-invented-border: #e2bd52;
@@ -24,8 +30,36 @@ export const themeTokens = css`
     --cp-error-border: #c94a4a;
     --cp-error-text: #7d1d1d;
     --cp-ok: #22683a;
+    --cp-ok-bg: #e8f4ec;
     --cp-radius: 6px;
     --cp-gap: 16px;
+    color-scheme: light;
+  }
+  :host([data-theme='dark']) {
+    --cp-text: #e6eaef;
+    --cp-muted: #a3adb9;
+    --cp-page: #14181d;
+    --cp-panel: #1c2128;
+    --cp-border: #343c47;
+    --cp-rule: #2a313a;
+    --cp-accent: #79aef2;
+    --cp-on-accent: #0e1a2a;
+    --cp-selected-bg: #233a55;
+    --cp-input-bg: #12161b;
+    --cp-input-border: #4a5461;
+    --cp-button-bg: #262c34;
+    --cp-button-hover: #303844;
+    --cp-invented-bg: #4a3a10;
+    --cp-invented-text: #f6dc94;
+    --cp-invented-border: #8a6a1c;
+    --cp-caution-bg: #3a2c12;
+    --cp-caution-border: #a57420;
+    --cp-error-bg: #3d1c1c;
+    --cp-error-border: #c96a6a;
+    --cp-error-text: #ffb4ab;
+    --cp-ok: #7fd39a;
+    --cp-ok-bg: #1c3324;
+    color-scheme: dark;
   }
 `;
 

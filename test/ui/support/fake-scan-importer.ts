@@ -1,4 +1,6 @@
-import type { ScanImporter } from '../../../src/ui/emissions/emissions-section.ts';
+import type { ScanImportClient } from '../../../src/client/scan-import-client.ts';
+
+type ScanImporter = Pick<ScanImportClient, 'importScan'>;
 import { scanImportApi, type ScanImportOptions, type ScanImportReply } from '../../../workers/scan-import-api.ts';
 
 interface PendingImport {
