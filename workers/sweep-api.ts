@@ -127,7 +127,9 @@ export const sweepApi = {
     const elapsedMs = performance.now() - started;
     // A million-point scan makes tens of columns: move their buffers rather than copy them.
     const reply = { ok: true as const, requestId, analysis, elapsedMs };
-    return Comlink.transfer(reply, collectTransferables(analysis));
+    // A stored scan's own columns appear in the analysis; moving them would empty the worker's copy.
+    const kept = noise.kind === 'stored-scan' && input.kind === 'scan' ? new Set(collectTransferables(input.scan)) : new Set<ArrayBuffer>();
+    return Comlink.transfer(reply, collectTransferables(analysis).filter((buffer) => !kept.has(buffer)));
   },
 };
 

@@ -62,6 +62,23 @@ export class Planner {
     });
   }
 
+  /** A second browser profile (its own saved work), for opening a link as someone else would. */
+  async otherProfile(): Promise<Planner> {
+    const other = new Planner();
+    other.server = this.server;
+    other.origin = this.origin;
+    other.userDataDir = mkdtempSync(join(tmpdir(), 'chokepoint-e2e-'));
+    other.context = await chromium.launchPersistentContext(other.userDataDir, {
+      executablePath: '/usr/bin/chromium',
+      headless: true,
+      args: CHROMIUM_ARGS,
+      viewport: { width: 1280, height: 800 },
+      deviceScaleFactor: 1,
+    });
+    other.sharedServer = true;
+    return other;
+  }
+
   async open(hash = ''): Promise<PageRecord> {
     if (!this.context) throw new Error('the browser did not start');
     const page = await this.context.newPage();
@@ -81,9 +98,11 @@ export class Planner {
     for (const record of this.pages.splice(0)) await record.page.close();
   }
 
+  private sharedServer = false;
+
   async stop(): Promise<void> {
     await this.context?.close();
-    await this.server?.close();
+    if (!this.sharedServer) await this.server?.close();
     if (this.userDataDir) rmSync(this.userDataDir, { recursive: true, force: true });
   }
 
@@ -92,13 +111,6 @@ export class Planner {
     expect(foreign).toEqual([]);
     expect(record.requests.length).toBeGreaterThan(0);
   }
-}
-
-/** Wait until the sweep's status line leaves "sweeping" and return its tone and text. */
-export async function finalStatus(page: Page): Promise<{ tone: string; text: string }> {
-  const status = page.locator('.status:not([data-tone="busy"]):not([data-tone="idle"])');
-  await status.waitFor({ timeout: 30_000 });
-  return { tone: (await status.getAttribute('data-tone')) ?? '', text: await status.innerText() };
 }
 
 /** The visible text inside a component's shadow root (a host's innerText leaves it out). */

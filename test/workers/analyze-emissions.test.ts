@@ -217,3 +217,22 @@ describe('sweepApi.storeScan: a scan handed over once, analysed by name', () => 
     expect(sweepApi.forgetScan('many-9')).toBe(false);
   });
 });
+
+describe('a stored scan analysed again and again over a real channel', () => {
+  it('keeps its columns in the worker: the second analysis still reads them', async () => {
+    const { port1, port2 } = new MessageChannel();
+    Comlink.expose(sweepApi, port1 as unknown as Comlink.Endpoint);
+    const remote = Comlink.wrap<SweepApi>(port2 as unknown as Comlink.Endpoint);
+    try {
+      await remote.storeScan({ scanId: 'again', scan: scan() });
+      const first = (await remote.analyzeEmissions({ requestId: 50, design: demo, noise: { kind: 'stored-scan', scanId: 'again' } })) as EmissionsReply;
+      const second = (await remote.analyzeEmissions({ requestId: 51, design: demo, noise: { kind: 'stored-scan', scanId: 'again' } })) as EmissionsReply;
+      expect(expectSuccess(first).analysis.frequencyHz.length).toBe(60);
+      expect(expectSuccess(second).analysis.frequencyHz.length).toBe(60);
+    } finally {
+      remote[Comlink.releaseProxy]();
+      port1.close();
+      port2.close();
+    }
+  });
+});

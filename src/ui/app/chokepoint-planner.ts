@@ -49,6 +49,9 @@ export type ThemeChoice = 'system' | 'light' | 'dark';
 /** What the page does with plot exports (download a file); tests pass a recorder. */
 export type ExportHandler = (spec: PlotSpec, format: 'csv' | 'svg' | 'png', theme: PlotTheme) => void;
 
+/** What the plots export until the SVG renderer is wired: the curves, and the picture on screen. */
+const PICTURE_FORMATS = ['csv', 'png'] as const;
+
 interface Specs {
   readonly emissions: PlotSpec | undefined;
   readonly required: PlotSpec | undefined;
@@ -246,6 +249,15 @@ export class ChokepointPlanner extends LitElement {
   /** Called by the page's wiring when the worker has new results. */
   resultsChanged(): void {
     this.resultsVersion += 1;
+  }
+
+  /** Whether the design being edited has its sweep and its analysis (or a reason there is none): nothing is pending. */
+  get settled(): boolean {
+    const workspace = this.workspace;
+    if (!workspace) return false;
+    const result = this.resultOf(workspace.activeId);
+    const active = activeVariant(workspace);
+    return result !== undefined && result.document === active.validDocument && result.sweep.status !== 'running' && result.analysis.status !== 'running';
   }
 
   /** Read a scan file dropped on the page, as the scan panel's own picker would. */
@@ -449,6 +461,7 @@ export class ChokepointPlanner extends LitElement {
             <div class="plots">
               <div class="panel">
                 <chokepoint-plot-panel
+                  .formats=${PICTURE_FORMATS}
                   heading="Emission at the LISN"
                   .caption=${analysis ? 'Predicted levels against the limit lines; shaded where the margin falls short of the target.' : ''}
                   .spec=${specs.emissions}
@@ -460,6 +473,7 @@ export class ChokepointPlanner extends LitElement {
               </div>
               <div class="panel">
                 <chokepoint-plot-panel
+                  .formats=${PICTURE_FORMATS}
                   heading="Attenuation needed and given"
                   caption="Solid: what the filter must give per mode (no filter, less the limit and the target margin). Dashed: what it gives in circuit."
                   .spec=${specs.required}
@@ -470,6 +484,7 @@ export class ChokepointPlanner extends LitElement {
               </div>
               <div class="panel">
                 <chokepoint-plot-panel
+                  .formats=${PICTURE_FORMATS}
                   heading="Insertion loss, CM and DM"
                   caption="Solid: in circuit, between this design's noise source and LISNs. Dashed: 50 Ω/50 Ω. Band: between the 0.1 Ω/100 Ω and 100 Ω/0.1 Ω tests. ▼ part self-resonance, ○ located peak or notch."
                   .spec=${specs.insertionLoss}
@@ -480,6 +495,7 @@ export class ChokepointPlanner extends LitElement {
               </div>
               <div class="panel">
                 <chokepoint-plot-panel
+                  .formats=${PICTURE_FORMATS}
                   heading="Impedance of each part"
                   caption="|Z| of every part in circuit (a choke: CM solid, DM dashed), the selected part bold; ▼ self-resonance."
                   .spec=${specs.impedance}

@@ -77,20 +77,25 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   }
   store ??= new PlannerStore(workspaceOf(demoDesign as unknown as JsonObject, 'demo', true));
 
-  // A design in the link opens as a new variant beside the saved work, never over it.
-  const fromLink = await readShareLink(window.location.hash, deflateCodec);
-  if (fromLink.status === 'invalid') {
-    say({ tone: 'error', text: 'The design in the link cannot be used, so nothing was opened from it.', details: fromLink.error.issues.map(formatIssue) });
-  } else if (fromLink.status === 'found') {
-    const checked = asJson(fromLink.document);
-    const linked = checked.ok && isJsonObject(checked.value) ? checked.value : undefined;
-    const same = linked && store.workspace.variants.find((v) => JSON.stringify(v.document) === JSON.stringify(linked));
-    if (same) store.dispatch({ type: 'switch-variant', id: same.id });
-    else if (linked) {
-      store.dispatch({ type: 'open-design', document: linked, origin: 'link', label: 'open a design from a link' });
-      say({ tone: 'info', text: `Opened “${fromLink.design.name}” from the link as a new variant; the work saved before is still here (see Variants).` });
+  // A design in the link opens as a new variant beside the saved work, never over it: at start, and
+  // when a link is pasted into the address of the open page (a hashchange; our own replaceState fires none).
+  const openLink = async (hash: string): Promise<void> => {
+    const fromLink = await readShareLink(hash, deflateCodec);
+    if (fromLink.status === 'invalid') {
+      say({ tone: 'error', text: 'The design in the link cannot be used, so nothing was opened from it.', details: fromLink.error.issues.map(formatIssue) });
+    } else if (fromLink.status === 'found') {
+      const checked = asJson(fromLink.document);
+      const linked = checked.ok && isJsonObject(checked.value) ? checked.value : undefined;
+      const same = linked && store.workspace.variants.find((v) => JSON.stringify(v.document) === JSON.stringify(linked));
+      if (same) store.dispatch({ type: 'switch-variant', id: same.id });
+      else if (linked) {
+        store.dispatch({ type: 'open-design', document: linked, origin: 'link', label: 'open a design from a link' });
+        say({ tone: 'info', text: `Opened “${fromLink.design.name}” from the link as a new variant; the work saved before is still here (see Variants).` });
+      }
     }
-  }
+  };
+  await openLink(window.location.hash);
+  window.addEventListener('hashchange', () => void openLink(window.location.hash));
 
   if (db) {
     const autosave = new Autosave(db, store, `tab-${Math.random().toString(36).slice(2, 10)}`, revision, {
@@ -171,7 +176,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   const onExport: ExportHandler = (spec, format) => {
     const base = `${fileStem(activeVariant(store.workspace).document)}-${spec.id}`;
     if (format === 'csv') download(`${base}.csv`, 'text/csv', plotToCsv(spec));
-    else planner.dispatchEvent(new CustomEvent('export-picture', { detail: { spec, format, base } }));
+    else if (format === 'png') planner.plotCanvas(spec.id)?.toBlob((blob) => blob && download(`${base}.png`, 'image/png', blob));
   };
 
   // File actions: open and save design files, copy the link; drop a design or a scan on the page.

@@ -57,6 +57,8 @@ export class PlotPanel extends LitElement {
   @property({ type: Number }) heightRatio = 0.48;
   @property() emptyText = 'Nothing to draw yet.';
   @property({ attribute: false }) createPlot: SpecPlotFactory | undefined;
+  /** The exports offered. */
+  @property({ attribute: false }) formats: readonly PlotExportFormat[] = ['csv', 'svg', 'png'];
 
   @query('chokepoint-spec-chart') chart: SpecChart | null | undefined;
 
@@ -68,7 +70,7 @@ export class PlotPanel extends LitElement {
           <h2 id=${id}>${this.heading || this.spec?.title || ''}</h2>
           ${this.spec
             ? html`<div class="exports" role="group" aria-label="Export ${this.heading}">
-                ${(['csv', 'svg', 'png'] as const).map(
+                ${this.formats.map(
                   (format) => html`<button type="button" data-export=${format} @click=${() => this.export(format)}>${format.toUpperCase()}</button>`,
                 )}
               </div>`

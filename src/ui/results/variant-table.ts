@@ -115,7 +115,7 @@ export class VariantTable extends LitElement {
               const analysis = this.results.get(variant.id)?.analysis;
               const overlaid = workspace.overlayIds.includes(variant.id);
               const name = variantName(variant);
-              return html`<tr class=${isActive ? 'active' : ''} data-variant=${variant.id}>
+              return html`<tr class=${isActive ? 'active' : ''} data-variant=${variant.id} data-name=${name}>
                 <td class="name">
                   <input
                     type="text"
