@@ -20,6 +20,22 @@ export default tseslint.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
       '@typescript-eslint/consistent-type-imports': 'error',
       'no-console': 'off',
+      // No way in for code: nothing is evaluated, and user text (names, notes, file contents) is never markup.
+      'no-eval': 'error',
+      'no-implied-eval': 'error',
+      'no-new-func': 'error',
+      'no-restricted-properties': [
+        'error',
+        { property: 'innerHTML', message: 'render text with lit templates or textContent; user text is never markup' },
+        { property: 'outerHTML', message: 'render text with lit templates or textContent; user text is never markup' },
+        { property: 'insertAdjacentHTML', message: 'render text with lit templates or textContent; user text is never markup' },
+        { object: 'document', property: 'write', message: 'no document.write' },
+      ],
+      'no-restricted-syntax': [
+        'error',
+        { selector: "ImportDeclaration[source.value=/unsafe-(html|svg)/]", message: 'unsafeHTML and unsafeSVG turn text into markup; build nodes instead' },
+        { selector: "CallExpression[callee.property.name='createContextualFragment']", message: 'no HTML parsing of strings' },
+      ],
     },
   },
   { files: ['src/model/**'], rules: restrict('**/engine/**', '**/io/**', '**/ui/**', '**/cli/**', '**/client/**', '**/spectrum/**', 'lit', 'uplot', 'comlink') },

@@ -1,5 +1,35 @@
 import { fileURLToPath } from 'node:url';
+import type { Plugin } from 'vite';
 import { defineConfig } from 'vitest/config';
+
+/**
+ * The built page's Content-Security-Policy: only the app's own scripts, styles and workers; no inline
+ * script, no eval, no request to any other origin. lit's styles are constructed stylesheets and uPlot
+ * styles elements through the CSSOM, neither of which the policy forbids. The same policy is a
+ * <meta> tag in dist/index.html and a header from `npm start` (vite preview). The dev server, which
+ * injects inline modules for hot reload, runs without it.
+ */
+export const CONTENT_SECURITY_POLICY = [
+  "default-src 'none'",
+  "script-src 'self'",
+  "style-src 'self'",
+  "img-src 'self' data: blob:",
+  "font-src 'self'",
+  "connect-src 'self'",
+  "worker-src 'self'",
+  "manifest-src 'self'",
+  "base-uri 'none'",
+  "form-action 'none'",
+  "object-src 'none'",
+].join('; ');
+
+function contentSecurityPolicy(): Plugin {
+  return {
+    name: 'chokepoint-content-security-policy',
+    apply: 'build',
+    transformIndexHtml: () => [{ tag: 'meta', attrs: { 'http-equiv': 'Content-Security-Policy', content: CONTENT_SECURITY_POLICY }, injectTo: 'head-prepend' }],
+  };
+}
 
 const repoRoot = fileURLToPath(new URL('.', import.meta.url));
 
@@ -15,11 +45,13 @@ export default defineConfig({
     target: 'es2022',
     sourcemap: true,
   },
+  plugins: [contentSecurityPolicy()],
   worker: {
     format: 'es',
   },
   server: { host: '127.0.0.1' },
-  preview: { host: '127.0.0.1' },
+  // frame-ancestors only works as a header, so the header adds it.
+  preview: { host: '127.0.0.1', headers: { 'Content-Security-Policy': `${CONTENT_SECURITY_POLICY}; frame-ancestors 'none'` } },
   test: {
     // Tests and their globs are relative to the repository, not to the app root.
     root: repoRoot,

@@ -1,7 +1,7 @@
 import { css, html, LitElement, nothing, unsafeCSS } from 'lit';
 import { customElement, property } from 'lit/decorators.js';
 import type { SweepResult } from '../../engine/index.ts';
-import { OVERLAY_COLOURS } from '../charts/chart-overlays.ts';
+import { PLOT_PALETTE } from '../../drawing/plot-palette.ts';
 import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 import { type ResonanceNote, resonanceNotes } from '../charts/resonance-marks.ts';
 import { sharedStyles } from '../styles/theme.ts';
@@ -29,7 +29,20 @@ export class ResonanceList extends LitElement {
         text-align: center;
       }
       .srf {
-        color: ${unsafeCSS(OVERLAY_COLOURS.selfResonance)};
+        color: var(--cp-muted);
+      }
+      /* The mode colours of the plots (common mode blue, differential mode amber); no inline styles (CSP). */
+      .cm {
+        color: ${unsafeCSS(PLOT_PALETTE.light['common-mode'])};
+      }
+      .dm {
+        color: ${unsafeCSS(PLOT_PALETTE.light['differential-mode'])};
+      }
+      :host-context([data-theme='dark']) .cm {
+        color: ${unsafeCSS(PLOT_PALETTE.dark['common-mode'])};
+      }
+      :host-context([data-theme='dark']) .dm {
+        color: ${unsafeCSS(PLOT_PALETTE.dark['differential-mode'])};
       }
     `,
   ];
@@ -65,7 +78,7 @@ export class ResonanceList extends LitElement {
       </tr>`;
     }
     return html`<tr>
-      <td class="symbol" aria-hidden="true" style="color: ${note.series.stroke}">○</td>
+      <td class="symbol ${note.series.mode === 'CM' ? 'cm' : 'dm'}" aria-hidden="true">○</td>
       <td class="num">${formatFrequency(note.frequencyHz)}</td>
       <td>${note.series.label}: ${note.type}, ${note.valueDb.toFixed(1)} dB</td>
     </tr>`;
