@@ -91,9 +91,11 @@ describe('plots drawn by Chromium', () => {
     const { layout } = drawPlot(spec, { width: 600, height: 300 });
     const text = plotToSvg(spec, { width: 600, height: 300 });
     await page.setContent('<!doctype html><html><body></body></html>');
+    // The function's own source, put in the page as a script (it imports nothing, so it runs as it stands).
+    await page.addScriptTag({ content: `window.svgToPngBlob = ${svgToPngBlob.toString()};` });
     const result = await page.evaluate(
-      async ({ source, svgText, width, height }) => {
-        const convert = new Function(`return (${source})`)() as (t: string, w: number, h: number, s: number) => Promise<Blob>;
+      async ({ svgText, width, height }) => {
+        const convert = (window as unknown as { svgToPngBlob: (t: string, w: number, h: number, s: number) => Promise<Blob> }).svgToPngBlob;
         const blob = await convert(svgText, width, height, 2);
         const bitmap = await createImageBitmap(blob);
         const canvas = new OffscreenCanvas(bitmap.width, bitmap.height);
@@ -104,7 +106,7 @@ describe('plots drawn by Chromium', () => {
         for (let p = 0; p < data.length; p += 4) if (data[p]! + data[p + 1]! + data[p + 2]! < 600) ink += 1;
         return { type: blob.type, width: bitmap.width, height: bitmap.height, ink };
       },
-      { source: svgToPngBlob.toString(), svgText: text, width: layout.width, height: layout.height },
+      { svgText: text, width: layout.width, height: layout.height },
     );
     expect(result.type).toBe('image/png');
     expect(result.width).toBe(layout.width * 2);

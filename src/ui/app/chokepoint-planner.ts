@@ -17,6 +17,7 @@ import { checkDocument, issuesByPath } from '../../planner/validation.ts';
 import { activeVariant, variantById, variantName, type Workspace } from '../../planner/workspace.ts';
 import type { CursorMoveEvent } from '../charts/spec-chart.ts';
 import '../design/circuit-settings.ts';
+import '../design/filter-drawing.ts';
 import '../design/part-editor.ts';
 import '../design/stage-editor.ts';
 import '../editors/object-fields.ts';
@@ -48,9 +49,6 @@ export type ThemeChoice = 'system' | 'light' | 'dark';
 
 /** What the page does with plot exports (download a file); tests pass a recorder. */
 export type ExportHandler = (spec: PlotSpec, format: 'csv' | 'svg' | 'png', theme: PlotTheme) => void;
-
-/** What the plots export until the SVG renderer is wired: the curves, and the picture on screen. */
-const PICTURE_FORMATS = ['csv', 'png'] as const;
 
 interface Specs {
   readonly emissions: PlotSpec | undefined;
@@ -458,10 +456,13 @@ export class ChokepointPlanner extends LitElement {
           </div>
           <div class="column" aria-label="Results">
             ${this.renderStatus(result)}
+            <section class="panel" aria-labelledby="drawing-title">
+              <h2 id="drawing-title" class="visually-hidden">The filter drawn</h2>
+              <chokepoint-filter-drawing .design=${validDesign} .selectedId=${selected} .theme=${this.shownTheme}></chokepoint-filter-drawing>
+            </section>
             <div class="plots">
               <div class="panel">
                 <chokepoint-plot-panel
-                  .formats=${PICTURE_FORMATS}
                   heading="Emission at the LISN"
                   .caption=${analysis ? 'Predicted levels against the limit lines; shaded where the margin falls short of the target.' : ''}
                   .spec=${specs.emissions}
@@ -473,7 +474,6 @@ export class ChokepointPlanner extends LitElement {
               </div>
               <div class="panel">
                 <chokepoint-plot-panel
-                  .formats=${PICTURE_FORMATS}
                   heading="Attenuation needed and given"
                   caption="Solid: what the filter must give per mode (no filter, less the limit and the target margin). Dashed: what it gives in circuit."
                   .spec=${specs.required}
@@ -484,7 +484,6 @@ export class ChokepointPlanner extends LitElement {
               </div>
               <div class="panel">
                 <chokepoint-plot-panel
-                  .formats=${PICTURE_FORMATS}
                   heading="Insertion loss, CM and DM"
                   caption="Solid: in circuit, between this design's noise source and LISNs. Dashed: 50 Ω/50 Ω. Band: between the 0.1 Ω/100 Ω and 100 Ω/0.1 Ω tests. ▼ part self-resonance, ○ located peak or notch."
                   .spec=${specs.insertionLoss}
@@ -495,7 +494,6 @@ export class ChokepointPlanner extends LitElement {
               </div>
               <div class="panel">
                 <chokepoint-plot-panel
-                  .formats=${PICTURE_FORMATS}
                   heading="Impedance of each part"
                   caption="|Z| of every part in circuit (a choke: CM solid, DM dashed), the selected part bold; ▼ self-resonance."
                   .spec=${specs.impedance}

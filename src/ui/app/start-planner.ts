@@ -6,6 +6,8 @@ import { createScanImportWorkerClient } from '../../client/scan-import-client.ts
 import { Autosave } from '../../client/storage/autosave.ts';
 import { PlannerDatabase } from '../../client/storage/planner-db.ts';
 import { plotToCsv } from '../../drawing/plot-csv.ts';
+import { drawPlot, plotToSvg } from '../../drawing/plot-svg.ts';
+import { svgToPngBlob } from '../drawing/svg-to-png.ts';
 import { parseJsonText } from '../../io/json-text.ts';
 import { encodeShareLink, readShareLink } from '../../io/share-link.ts';
 import { formatIssue } from '../../model/validation-error.ts';
@@ -175,8 +177,21 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   };
   const onExport: ExportHandler = (spec, format) => {
     const base = `${fileStem(activeVariant(store.workspace).document)}-${spec.id}`;
-    if (format === 'csv') download(`${base}.csv`, 'text/csv', plotToCsv(spec));
-    else if (format === 'png') planner.plotCanvas(spec.id)?.toBlob((blob) => blob && download(`${base}.png`, 'image/png', blob));
+    if (format === 'csv') {
+      download(`${base}.csv`, 'text/csv', plotToCsv(spec));
+      return;
+    }
+    // The picture is the SVG renderer's (as in the report), printed in the light palette; PNG paints that SVG.
+    const size = { width: 960, height: 440, theme: 'light' as const };
+    const svgText = plotToSvg(spec, { ...size, standalone: true });
+    if (format === 'svg') download(`${base}.svg`, 'image/svg+xml', svgText);
+    else {
+      const { layout } = drawPlot(spec, size);
+      void svgToPngBlob(svgText, layout.width, layout.height, 2).then(
+        (blob) => download(`${base}.png`, 'image/png', blob),
+        (cause: unknown) => say({ tone: 'error', text: `The picture could not be made: ${cause instanceof Error ? cause.message : String(cause)}` }),
+      );
+    }
   };
 
   // File actions: open and save design files, copy the link; drop a design or a scan on the page.
