@@ -32,7 +32,7 @@ export const limitMaskSchema = z
     frequencyHz: z.array(z.number().positive().finite()).min(2).max(10_000),
     levelDbuV: z.array(z.number().finite()).min(2).max(10_000),
     /** Where a copied preset came from (standard, edition, table), kept for the report. */
-    origin: z.string().max(300).optional(),
+    origin: z.string().max(500).optional(),
   })
   .superRefine((mask, ctx) => {
     if (mask.levelDbuV.length !== mask.frequencyHz.length) {

@@ -94,7 +94,7 @@ const SOURCES: readonly Source[] = [
     shortName: 'CISPR 22 / EN 55022',
     standard: 'CISPR 22 / EN 55022, information technology equipment',
     edition: () => 'CISPR 22 ed. 6 (2008)',
-    clause: (c) => `limits for conducted disturbance at the mains terminals, class ${c} (table number not confirmed)`,
+    clause: (c) => `limits for conducted disturbance at the mains terminals, class ${c}`,
     status: 'V2',
     statusNote: () => 'V2: values from a university EMC course page reproducing the EN 55022 table; the standard itself was not read',
   },
@@ -103,7 +103,7 @@ const SOURCES: readonly Source[] = [
     shortName: 'CISPR 32 / EN 55032',
     standard: 'CISPR 32 / EN 55032, multimedia equipment',
     edition: () => 'CISPR 32:2015',
-    clause: (c) => `Annex A, class ${c} limits for the AC mains power port (table number not confirmed: probably Table ${c === 'B' ? 'A.10' : 'A.8'})`,
+    clause: (c) => `Annex A, class ${c} limits for the AC mains power port (probably Table ${c === 'B' ? 'A.10' : 'A.8'}: check the number in the standard)`,
     status: 'V2',
     statusNote: () =>
       'V2 for the values, those of the EN 55022 mains table, with which the project reference sheet lists CISPR 32 class A/B AC mains; ' +
@@ -116,8 +116,8 @@ const SOURCES: readonly Source[] = [
     edition: (c) => (c === 'A' ? 'CISPR 11 ed. 6 (2015)' : 'edition not stated by the source'),
     clause: (c) =>
       c === 'A'
-        ? 'mains terminal disturbance voltage limits, group 1 class A, rated input power up to 20 kVA (table number not confirmed)'
-        : 'mains terminal disturbance voltage limits, group 1 class B (table number not confirmed)',
+        ? 'mains terminal disturbance voltage limits, group 1 class A, rated input power up to 20 kVA'
+        : 'mains terminal disturbance voltage limits, group 1 class B',
     status: 'V2',
     statusNote: (c) =>
       c === 'A'
@@ -165,9 +165,14 @@ export function findPreset(id: string): LimitPreset | undefined {
   return LIMIT_PRESETS.find((preset) => preset.id === id);
 }
 
-/** Standard, edition, clause, detector and status in one line: the copy's `origin` (at most 300 characters). */
+/** Where a preset's values come from, in the words a user reads (the page, the report, a copy's origin). */
+export function presetSourceText(preset: Pick<LimitPreset, 'status'>): string {
+  return preset.status === 'V' ? 'from the published table' : 'from a secondary source: check against the standard before relying on it';
+}
+
+/** Standard, edition, clause, detector and where the values come from, in one line: the copy's `origin` (at most 500 characters). */
 export function presetOrigin(preset: LimitPreset): string {
-  return `${preset.standard}, ${preset.edition}; ${preset.clause}; ${preset.detector}; status ${preset.status} (preset ${preset.id})`;
+  return `${preset.standard}, ${preset.edition}; ${preset.clause}; ${preset.detector}; values ${presetSourceText(preset)} (preset ${preset.id})`;
 }
 
 /**

@@ -6,7 +6,7 @@ import { emissionsSchema } from '../../model/design-schema.ts';
 import { DETECTORS, limitMaskSchema } from '../../model/emissions-schema.ts';
 import { masksOf } from '../../planner/edits/emissions-edits.ts';
 import { isJsonObject, type Json, type JsonObject } from '../../planner/json.ts';
-import { LIMIT_PRESETS, type LimitPreset } from '../../spectrum/limit-presets.ts';
+import { LIMIT_PRESETS, type LimitPreset, presetSourceText } from '../../spectrum/limit-presets.ts';
 import { sendIntent } from '../app/intent-event.ts';
 import { editorStyles } from '../editors/editor-styles.ts';
 import '../editors/object-fields.ts';
@@ -19,10 +19,6 @@ import { sharedStyles } from '../styles/theme.ts';
  * and say in plain words where their values come from.
  */
 
-/** What a preset's source status means for the person relying on it. */
-export function presetSourceText(preset: LimitPreset): string {
-  return preset.status === 'V' ? 'from the published table' : 'from a secondary source: check against the standard before relying on it';
-}
 
 export type DownloadRequest = CustomEvent<{ readonly fileName: string; readonly mimeType: string; readonly text: string }>;
 

@@ -11,8 +11,7 @@ import '../../../src/ui/design/part-editor.ts';
 import '../../../src/ui/design/stage-editor.ts';
 import '../../../src/ui/editors/object-fields.ts';
 import '../../../src/ui/emissions/limit-editor.ts';
-import { presetSourceText } from '../../../src/ui/emissions/limit-editor.ts';
-import { LIMIT_PRESETS } from '../../../src/spectrum/limit-presets.ts';
+import { LIMIT_PRESETS, presetSourceText } from '../../../src/spectrum/limit-presets.ts';
 
 /**
  * The editors send intents and show what the store says: a field typed as text, a unit beside it,
