@@ -19,7 +19,9 @@ await build({
   root,
   logLevel: 'warn',
   publicDir: false,
-  ssr: { target: 'node', noExternal: true },
+  // Bundle the project's own code and its libraries; leave the tools that load files of their own
+  // (vite, playwright-core) as packages, found in node_modules at run time.
+  ssr: { target: 'node', noExternal: true, external: ['vite', 'playwright-core'] },
   build: {
     ssr: resolve(entry),
     outDir,

@@ -39,6 +39,11 @@ export interface VariantResult {
   readonly noiseKey: string;
   readonly sweep: SweepState;
   readonly analysis: AnalysisState;
+  /**
+   * The newest finished results of this variant, perhaps for an earlier document: what the page keeps
+   * drawing while new ones are computed, so an edit never blanks or rebuilds a plot.
+   */
+  readonly shown: { readonly sweep: SweepResult | undefined; readonly analysis: EmissionsAnalysis | undefined };
 }
 
 /** Gives the worker's scans by id; the page's scan store. */
@@ -138,7 +143,8 @@ export class PlannerResults {
     // The sweep is the same whatever the noise: keep it when only the noise changed.
     const sameDocument = current?.document === document;
     const sweep: SweepState = sameDocument && current.sweep.status === 'done' ? current.sweep : { status: 'running' };
-    slot.result = { document, noiseKey, sweep, analysis: { status: 'running' } };
+    const shown = current?.shown ?? { sweep: undefined, analysis: undefined };
+    slot.result = { document, noiseKey, sweep, analysis: { status: 'running' }, shown: sweep.status === 'done' ? { ...shown, sweep: sweep.result } : shown };
     this.onChange(variantId);
     if (sweep.status === 'running') void this.runSweep(variantId, slot, document, noiseKey, cacheKey);
     void this.runAnalysis(variantId, slot, document, noise, noiseKey, cacheKey);
@@ -148,7 +154,8 @@ export class PlannerResults {
     const outcome = await slot.sweep.request(document);
     if (outcome.status === 'superseded' || !this.isCurrent(slot, document, noiseKey)) return;
     const sweep: SweepState = outcome.status === 'done' ? { status: 'done', result: outcome.result, elapsedMs: outcome.elapsedMs } : { status: 'error', error: outcome.error };
-    slot.result = { ...slot.result!, sweep };
+    const shown = slot.result!.shown;
+    slot.result = { ...slot.result!, sweep, shown: sweep.status === 'done' ? { ...shown, sweep: sweep.result } : shown };
     this.keep(variantId, cacheKey, slot.result);
     this.onChange(variantId);
   }
@@ -157,7 +164,7 @@ export class PlannerResults {
     const request = await this.noiseRequest(document, noise);
     if (!this.isCurrent(slot, document, noiseKey)) return;
     if ('reason' in request) {
-      slot.result = { ...slot.result!, analysis: { status: 'idle', reason: request.reason } };
+      slot.result = { ...slot.result!, analysis: { status: 'idle', reason: request.reason }, shown: { ...slot.result!.shown, analysis: undefined } };
       this.keep(variantId, cacheKey, slot.result);
       this.onChange(variantId);
       return;
@@ -165,7 +172,7 @@ export class PlannerResults {
     const outcome = await slot.emissions.analyze(document, request.noise);
     if (outcome.status === 'superseded' || !this.isCurrent(slot, document, noiseKey)) return;
     const analysis: AnalysisState = outcome.status === 'done' ? { status: 'done', analysis: outcome.analysis, elapsedMs: outcome.elapsedMs } : { status: 'error', error: outcome.error };
-    slot.result = { ...slot.result!, analysis };
+    slot.result = { ...slot.result!, analysis, shown: { ...slot.result!.shown, analysis: analysis.status === 'done' ? analysis.analysis : undefined } };
     this.keep(variantId, cacheKey, slot.result);
     this.onChange(variantId);
   }

@@ -92,3 +92,8 @@ export async function listedSelfResonances(page: Page, id: string): Promise<numb
     return result.sweep.result.resonances.filter((r) => r.kind === 'element' && r.elementId === elementId).map((r) => r.frequencyHz);
   }, id);
 }
+
+/** The revision of the work this page last saved to the browser's storage (0 before its first save). */
+export async function savedRevision(page: Page): Promise<number> {
+  return page.evaluate(() => document.querySelector('chokepoint-planner')!.autosave?.revision ?? 0);
+}

@@ -2,7 +2,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { Planner, repoRoot, screenshots } from './harness.ts';
-import { activeDocument, bandMargin, selectPart, settle, shoot, typeField, variantNames } from './planner-driver.ts';
+import { activeDocument, bandMargin, savedRevision, selectPart, settle, shoot, typeField, variantNames } from './planner-driver.ts';
 
 /**
  * Work is never lost and never silently replaced: undo and redo, a reload that restores variants
@@ -85,14 +85,20 @@ describe('saved work', () => {
     await shoot(page, 'work-restored');
   });
 
-  it('a page closed without warning mid-edit keeps the edit when opened again', async () => {
+  it('a page killed mid-edit (its renderer crashed, no unload handler run) keeps the edit when opened again', async () => {
     const browser = await profile();
     const first = await browser.open();
     await settle(first.page);
     await selectPart(first.page, 'CX3');
+    const savedBefore = await savedRevision(first.page);
     await typeField(first.page, 'Capacitance', '68n');
-    // Closed at once, no pagehide flush awaited, as a crash or a killed tab would.
-    await first.page.close({ runBeforeUnload: false });
+    // Saving starts with the keystroke; once it has landed, the renderer is killed outright.
+    await expect.poll(() => savedRevision(first.page)).toBeGreaterThan(savedBefore);
+    const cdp = await first.page.context().newCDPSession(first.page);
+    const crashed = new Promise((resolve) => first.page.once('crash', resolve));
+    // The command never answers: the renderer it would answer from is gone.
+    void cdp.send('Page.crash').catch(() => undefined);
+    await crashed;
     const second = await browser.open();
     await settle(second.page);
     const document = (await activeDocument(second.page)) as { stages: { elements: { id: string; part: { capacitance: unknown } }[] }[] };

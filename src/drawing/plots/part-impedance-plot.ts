@@ -1,7 +1,7 @@
 import type { ElementSweep, SweepResult } from '../../engine/sweep/sweep-result.ts';
 import { formatFrequency } from '../frequency-ticks.ts';
 import type { PlotColor, PlotMarker, PlotSeries, PlotSpec } from '../plot-spec.ts';
-import { extentOf, line, visibleColumns } from './plot-helpers.ts';
+import { line, visibleColumns } from './plot-helpers.ts';
 
 /**
  * Each part's own impedance |Z| against frequency (log-log), with its self-resonances marked: below
@@ -58,7 +58,18 @@ export function partImpedancePlot(result: SweepResult, options: PartImpedanceOpt
       }
     });
   }
-  const extent = extentOf(visibleColumns(series).map((column) => column.map((value) => (value > 0 ? value : Number.NaN))));
+  // The positive range only (a log axis), without copying the columns.
+  let low = Infinity;
+  let high = -Infinity;
+  for (const column of visibleColumns(series)) {
+    for (let i = 0; i < column.length; i += 1) {
+      const value = column[i]!;
+      if (!(value > 0) || !Number.isFinite(value)) continue;
+      if (value < low) low = value;
+      if (value > high) high = value;
+    }
+  }
+  const extent = low <= high ? { min: low, max: high } : { min: null, max: null };
   const min = extent.min === null ? 1e-3 : 10 ** Math.floor(Math.log10(Math.max(extent.min, 1e-6)));
   const max = extent.max === null ? 1e6 : 10 ** Math.ceil(Math.log10(Math.max(extent.max, min * 10)));
   return {

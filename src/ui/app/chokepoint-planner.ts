@@ -234,6 +234,8 @@ export class ChokepointPlanner extends LitElement {
   @property({ attribute: false }) notices: readonly { readonly tone: 'info' | 'error'; readonly text: string; readonly details?: readonly string[] }[] = [];
   @property({ attribute: 'data-theme', reflect: true }) shownTheme: PlotTheme = 'light';
   @property({ attribute: false }) themeChoice: ThemeChoice = 'system';
+  /** The saving of the work, when the browser keeps it: its revision is what was last written. */
+  autosave: { readonly revision: number } | undefined;
 
   @state() private workspace: Workspace | undefined;
   @state() private cursorHz: number | undefined;
@@ -242,6 +244,15 @@ export class ChokepointPlanner extends LitElement {
 
   private unsubscribe: (() => void) | undefined;
   private specMemo: { key: readonly unknown[]; specs: Specs } | undefined;
+  /** Derived values kept while their inputs are the same objects, so unchanged elements do not re-render. */
+  private readonly derived = new WeakMap<object, unknown>();
+  private derivedKeyed<K extends object, V>(key: K, make: (key: K) => V): V {
+    if (this.derived.has(key)) return this.derived.get(key) as V;
+    const value = make(key);
+    this.derived.set(key, value);
+    return value;
+  }
+  private resultsMapMemo: { key: readonly unknown[]; map: ReadonlyMap<string, VariantResult | undefined> } | undefined;
   private media: MediaQueryList | undefined;
 
   /** Called by the page's wiring when the worker has new results. */
@@ -365,18 +376,28 @@ export class ChokepointPlanner extends LitElement {
     return this.results?.resultFor(id);
   }
 
+  /** Each variant's results, as one map that stays the same object while none of them changed. */
+  private resultsMap(workspace: Workspace): ReadonlyMap<string, VariantResult | undefined> {
+    const key = workspace.variants.flatMap((v) => [v.id, this.resultOf(v.id)]);
+    if (this.resultsMapMemo && this.resultsMapMemo.key.length === key.length && this.resultsMapMemo.key.every((k, i) => k === key[i])) return this.resultsMapMemo.map;
+    const map = new Map(workspace.variants.map((v) => [v.id, this.resultOf(v.id)]));
+    this.resultsMapMemo = { key, map };
+    return map;
+  }
+
   private specs(workspace: Workspace): Specs {
     const active = this.resultOf(workspace.activeId);
-    const sweep = active?.sweep.status === 'done' ? active.sweep.result : undefined;
-    const analysis = active?.analysis.status === 'done' ? active.analysis.analysis : undefined;
+    // What was last finished stays drawn while the worker computes the newest edit.
+    const sweep = active?.shown.sweep;
+    const analysis = active?.shown.analysis;
     const overlaySweeps: Overlay<SweepResult>[] = [];
     const overlayAnalyses: Overlay<EmissionsAnalysis>[] = [];
     for (const id of workspace.overlayIds) {
       const variant = variantById(workspace, id);
       const result = this.resultOf(id);
       if (!variant || !result) continue;
-      if (result.sweep.status === 'done') overlaySweeps.push({ variantId: id, name: variantName(variant), result: result.sweep.result });
-      if (result.analysis.status === 'done') overlayAnalyses.push({ variantId: id, name: variantName(variant), result: result.analysis.analysis });
+      if (result.shown.sweep) overlaySweeps.push({ variantId: id, name: variantName(variant), result: result.shown.sweep });
+      if (result.shown.analysis) overlayAnalyses.push({ variantId: id, name: variantName(variant), result: result.shown.analysis });
     }
     const selected = workspace.selection?.kind === 'element' ? workspace.selection.id : undefined;
     const valid = checkDocument(activeVariant(workspace).validDocument ?? activeVariant(workspace).document);
@@ -401,15 +422,16 @@ export class ChokepointPlanner extends LitElement {
     void this.resultsVersion;
     const active = activeVariant(workspace);
     const checked = checkDocument(active.document);
-    const issues = issuesByPath(checked);
+    const issues = this.derivedKeyed(checked, issuesByPath);
+    const invalidPaths = this.derivedKeyed(issues, (map) => new Set(map.keys()));
     const valid = checkDocument(active.validDocument ?? active.document);
     const validDesign = valid.ok ? valid.design : undefined;
     const result = this.resultOf(active.id);
     const specs = this.specs(workspace);
     const selected = workspace.selection?.kind === 'element' ? workspace.selection.id : undefined;
-    const allResults = new Map(workspace.variants.map((v) => [v.id, this.resultOf(v.id)]));
-    const analysis = result?.analysis.status === 'done' ? result.analysis.analysis : undefined;
-    const sweep = result?.sweep.status === 'done' ? result.sweep.result : undefined;
+    const allResults = this.resultsMap(workspace);
+    const analysis = result?.shown.analysis;
+    const sweep = result?.shown.sweep;
     const plotSpecs = [specs.emissions, specs.required, specs.insertionLoss, specs.impedance].filter((s): s is PlotSpec => s !== undefined);
     return html`
       ${this.renderHeader(workspace)}
@@ -433,7 +455,7 @@ export class ChokepointPlanner extends LitElement {
             ${validDesign?.description ? html`<p class="description">${validDesign.description}</p>` : nothing}
             <section class="panel" aria-labelledby="filter-title">
               <h2 id="filter-title">Filter, from the noise source to the LISN</h2>
-              <chokepoint-stage-editor .document=${active.document} .design=${validDesign} .selection=${workspace.selection} .invalidPaths=${new Set(issues.keys())}></chokepoint-stage-editor>
+              <chokepoint-stage-editor .document=${active.document} .design=${validDesign} .selection=${workspace.selection} .invalidPaths=${invalidPaths}></chokepoint-stage-editor>
             </section>
             <section class="panel" aria-labelledby="part-title">
               <h2 id="part-title">${selected ? `Part ${selected}` : 'Part'}</h2>
@@ -509,7 +531,7 @@ export class ChokepointPlanner extends LitElement {
             </section>
             <section class="panel" aria-labelledby="margin-title">
               <h2 id="margin-title">Margin</h2>
-              ${analysis ? html`<chokepoint-margin-table .view=${marginTableView(analysis)}></chokepoint-margin-table>` : html`<p class="muted small">Nothing judged yet.</p>`}
+              ${analysis ? html`<chokepoint-margin-table .view=${this.derivedKeyed(analysis, marginTableView)}></chokepoint-margin-table>` : html`<p class="muted small">Nothing judged yet.</p>`}
             </section>
             <section class="panel" aria-labelledby="variants-title">
               <h2 id="variants-title">Variants</h2>
@@ -555,7 +577,7 @@ export class ChokepointPlanner extends LitElement {
   private renderStatus(result: VariantResult | undefined) {
     if (!result) return html`<p class="status" role="status">Waiting for a valid design…</p>`;
     if (result.sweep.status === 'error') return html`<p class="status error" role="status">The sweep failed: ${result.sweep.error.message}</p>`;
-    if (result.sweep.status === 'running') return html`<p class="status" role="status">Sweeping…</p>`;
+    if (result.sweep.status === 'running') return html`<p class="status" role="status" data-state="sweeping">Sweeping the change…</p>`;
     const f = result.sweep.result.frequencyHz;
     return html`<p class="status" role="status" data-state="swept">
       Swept ${f.length} points in ${result.sweep.elapsedMs.toFixed(1)} ms in the worker${result.analysis.status === 'done' ? `; judged in ${result.analysis.elapsedMs.toFixed(1)} ms` : ''}.

@@ -115,7 +115,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
     document.addEventListener('visibilitychange', () => {
       if (document.visibilityState === 'hidden') flush();
     });
-    (planner as ChokepointPlanner & { autosave?: Autosave }).autosave = autosave;
+    planner.autosave = autosave;
   }
 
   // The link follows the design being edited.
@@ -136,7 +136,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
           say({ tone: 'info', text: `The address no longer carries the design: ${link.reason}.` });
         }
       });
-    }, 120);
+    }, 400);
   };
   store.subscribe((change) => {
     if (change.cause !== 'view') followLink();

@@ -128,6 +128,9 @@ export class SpecChart extends LitElement {
     return this.plot !== undefined;
   }
 
+  /** How many times a spec has been drawn or updated in place (the benchmark waits on it). */
+  drawCount = 0;
+
   /** The zoomed window in Hz, or undefined for the whole axis. */
   get zoomWindow(): readonly [number, number] | undefined {
     return this.window;
@@ -196,6 +199,7 @@ export class SpecChart extends LitElement {
       // Same curves, new numbers: update in place (the hooks read the new spec through `live`).
       this.live.spec = spec;
       this.applyWindow(specData(spec, fromHz, toHz, this.bins()), fromHz, toHz);
+      this.drawCount += 1;
       return;
     }
     this.destroyPlot();
@@ -213,6 +217,7 @@ export class SpecChart extends LitElement {
     this.setScaleQuietly(fromHz, toHz);
     this.observer?.observe(target);
     this.showCursor();
+    this.drawCount += 1;
   }
 
   private applyWindow(data: uPlot.AlignedData, fromHz: number, toHz: number): void {

@@ -167,9 +167,9 @@ export function withAlpha(colour: string, alpha: number): string {
   return colour;
 }
 
-function ratioOf(u: uPlot): number {
-  const cssWidth = u.over.getBoundingClientRect().width;
-  return cssWidth > 0 ? u.bbox.width / cssWidth : 1;
+/** Canvas pixels per CSS pixel: uPlot sizes its canvas by the device pixel ratio (no layout read per draw). */
+function ratioOf(_u: uPlot): number {
+  return globalThis.devicePixelRatio || 1;
 }
 
 function drawRegions(u: uPlot, live: LiveSpec): void {
