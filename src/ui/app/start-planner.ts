@@ -1,5 +1,6 @@
 import * as Comlink from 'comlink';
 import demoDesign from '../../../fixtures/demo/adapter-two-stage.design.json';
+import demoScanUrl from '../../../fixtures/scans/invented-adapter-no-filter.csv?url';
 import { deflateCodec } from '../../client/compression.ts';
 import { PlannerResults } from '../../client/planner-results.ts';
 import { createScanImportWorkerClient } from '../../client/scan-import-client.ts';
@@ -147,7 +148,12 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   let scanCount = 0;
   const scanHost: ScanPanelHost = {
     importScan: (text, options, onProgress) => scanImporter.importScan(text, options, onProgress),
-    demoScanText: () => import('../../../fixtures/scans/invented-adapter-no-filter.csv?raw').then((module) => module.default),
+    // A file beside the page (not a script): fetched from the page's own origin when asked for.
+    demoScanText: async () => {
+      const response = await fetch(demoScanUrl);
+      if (!response.ok) throw new Error(`the page's server answered ${response.status}`);
+      return response.text();
+    },
     async keepScan(scan, invented) {
       scanCount += 1;
       const id = `scan-${Date.now().toString(36)}-${scanCount}`;
