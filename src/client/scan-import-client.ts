@@ -123,6 +123,7 @@ const scanSchema = z
     traces: z.array(z.object({ detector: z.enum(DETECTORS), levelDbuV: float64 })).min(1),
     rejected: z.array(rejectedSchema),
     notes: z.array(z.string()),
+    warnings: z.array(z.string()).optional(),
   })
   .superRefine((scan, ctx) => {
     const n = scan.frequencyHz.length;

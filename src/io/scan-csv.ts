@@ -973,7 +973,9 @@ function packScan(
   const first = frequencyHz[0]!;
   const last = frequencyHz[n - 1]!;
   notes.push(`${n} point${n === 1 ? '' : 's'} from ${hzText(first)} to ${hzText(last)}`);
-  plausibility(frequencyHz, scanTraces, columns, notes);
+  const warnings: string[] = [];
+  plausibility(frequencyHz, scanTraces, columns, warnings);
+  notes.push(...warnings);
   if (options.tag === undefined) notes.push(`no tag given: read as "${DEFAULT_TAG}" (a line's level, mode unknown)`);
   return {
     name: options.name ?? DEFAULT_NAME,
@@ -982,6 +984,7 @@ function packScan(
     traces: scanTraces,
     rejected,
     notes,
+    warnings,
   };
 }
 

@@ -93,7 +93,14 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
       requiredAttenuationCmDb: cm ? requiredAttenuation(unfiltered('unfilteredCommonModeDbuV'), masks, targetMarginDb) : undefined,
       requiredAttenuationDmDb: dm ? requiredAttenuation(unfiltered('unfilteredDifferentialModeDbuV'), masks, targetMarginDb) : undefined,
       masks,
-      report: marginReport(predicted, masks, { targetMarginDb, bands, ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}) }),
+      report: marginReport(predicted, masks, {
+        targetMarginDb,
+        bands,
+        ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}),
+        sampling: { kind: 'continuous' },
+        source: 'the scan',
+        hints: input.scan.warnings ?? [],
+      }),
       notes: [...prediction.notes, ...notes],
       scanPrediction: prediction,
     };
@@ -103,7 +110,8 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
   if (!estimate || (!estimate.commonMode && !estimate.differentialMode)) {
     throw new RangeError('the design has no noise estimate (emissions.estimate) to analyse');
   }
-  const prediction = predictFromEstimate(design, estimate, { stopHz: options.stopHz ?? design.frequencyPlan.stopHz });
+  const upToHz = options.stopHz ?? design.frequencyPlan.stopHz;
+  const prediction = predictFromEstimate(design, estimate, { stopHz: upToHz });
   // A line spectrum: every detector reads the same for each steady line (CISPR 16-1-1, CW), so
   // each line's reading stands for all three detectors and meets every mask with its own.
   const predicted: LevelSeries[] = [];
@@ -127,7 +135,13 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
     requiredAttenuationCmDb: requiredAttenuation(bare('common mode, no filter', prediction.bareCommonMode.readingDbuV), masks, targetMarginDb),
     requiredAttenuationDmDb: requiredAttenuation(bare('differential mode, no filter', prediction.bareDifferentialMode.readingDbuV), masks, targetMarginDb),
     masks,
-    report: marginReport(predicted, masks, { targetMarginDb, bands, ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}) }),
+    report: marginReport(predicted, masks, {
+      targetMarginDb,
+      bands,
+      ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}),
+      sampling: { kind: 'lines', upToHz },
+      source: 'the estimate',
+    }),
     notes,
     estimatePrediction: prediction,
   };

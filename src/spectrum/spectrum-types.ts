@@ -35,4 +35,10 @@ export interface Scan {
   readonly rejected: readonly RejectedLine[];
   /** How the file's columns were read (units, separator, assumptions), for the report. */
   readonly notes: readonly string[];
+  /**
+   * The notes that point to a likely mistake ("check the frequency unit: …"), also among `notes`:
+   * shown beside any verdict made from the scan, and given as hints when it is not a pass.
+   */
+  readonly warnings?: readonly string[];
 }
+

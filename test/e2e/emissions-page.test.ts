@@ -225,6 +225,21 @@ describe('the emissions section of the planner', () => {
     planner.expectOnlyLocalTraffic(record);
   });
 
+  it('gives no result for a headerless scan in MHz read as Hz, and shows the reader’s warning beside it', async () => {
+    const record = await planner.open();
+    const { page } = record;
+    await analysisDone(page, /noise estimate/u);
+    const file = { name: 'invented-headerless-mhz.csv', mimeType: 'text/csv', buffer: Buffer.from('0.15,80\n0.5,70\n5,60\n30,55\n') };
+    await section(page).locator('input[type="file"]').setInputFiles(file);
+    await analysisDone(page, /^Predicted from the scan “invented-headerless-mhz\.csv”: 4 points, 150 mHz to 30 Hz/u);
+    await expect(section(page).locator('.analysis-status .reader-warnings').innerText()).resolves.toMatch(/^Warning: check the frequency unit/u);
+    await expect(page.locator('chokepoint-margin-table .verdict strong').innerText()).resolves.toBe('NO RESULT');
+    await expect(page.locator('chokepoint-margin-table .verdict .reasons').innerText()).resolves.toMatch(/the scan spans 150 mHz to 30 Hz/u);
+    for (const band of ['0.15–0.5 MHz', '0.5–5 MHz', '5–30 MHz']) expect(await bandRow(page, band).innerText()).toContain('NOT COVERED');
+    expect(record.consoleErrors).toEqual([]);
+    planner.expectOnlyLocalTraffic(record);
+  });
+
   it('reads and judges a million-point scan in the workers while the page stays responsive', { timeout: 120_000 }, async () => {
     const record = await planner.open();
     const { page } = record;

@@ -8,8 +8,9 @@ import { formatQuantity } from '../../model/index.ts';
 import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../../spectrum/emissions-analysis.ts';
 import { LEVEL_UNIT_NAMES, type LevelUnitName } from '../../spectrum/level-units.ts';
 import { copyPreset, findPreset, LIMIT_PRESETS } from '../../spectrum/limit-presets.ts';
-import type { MarginPoint } from '../../spectrum/margin.ts';
-import { SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import type { BandResult, MarginPoint } from '../../spectrum/margin.ts';
+import { describeShortfall, type Verdict } from '../../spectrum/verdict.ts';
+import { type Scan, SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
 import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { listProblems, loadDesign, readInputFile } from '../design-input.ts';
@@ -25,7 +26,8 @@ export const checkCommand: Command = {
   description: [
     'Predicts what the receivers would read with the design’s filter and prints the margin table: worst margin overall and per band, the worst peaks, the failing ranges, and the attenuation still missing per mode. The noise comes from a scan (--scan), scaled by the filter’s in-circuit transfer over the baseline’s (the filter fitted when the scan was taken, from the design’s emissions.baseline; none by default), or from the design’s noise estimate (--estimate).',
     'Limits come from --limit (preset ids or mask CSV files, comma-separated) or else from the design’s emissions.masks. A peak scan judged against a quasi-peak or average limit is conservative, and the table says so.',
-    'Exit code 0 when every band keeps the target margin, 1 when one does not, 2 on bad input.',
+    'A band passes only when judged points cover it: a scan point (or a harmonic of the estimate) where a limit applies, above the noise floor, with the covered points reaching both edges of the band. A band without such evidence is "not covered" and the result fails; when nothing at all was judged (a scan in MHz read as Hz, say), there is no result: the command says why and exits 2. How the scan was read goes to standard error as notes, and what looks like a mistake as warnings.',
+    'Exit code 0 when every band is covered and keeps the target margin, 1 when a band does not or is not covered, 2 on bad input or when nothing was judged.',
   ],
   arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1)' }],
   options: [
@@ -70,6 +72,8 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
     }
     for (const rejected of read.scan.rejected.slice(0, 20)) tell(context, `warning: ${scanPath}, line ${rejected.line} left out: ${rejected.reason}`);
     if (read.scan.rejected.length > 20) tell(context, `warning: ${scanPath}: ${read.scan.rejected.length - 20} more lines left out`);
+    const warnings = new Set(read.scan.warnings ?? []);
+    for (const note of read.scan.notes) tell(context, `${warnings.has(note) ? 'warning' : 'note'}: ${scanPath}: ${note}`);
     input = { kind: 'scan', scan: read.scan };
   } else {
     if (!design.emissions?.estimate) throw new CliError('--estimate: the design has no emissions.estimate (docs/design-format.md)');
@@ -89,9 +93,18 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
     if (error instanceof RangeError) throw new CliError(error.message);
     throw error;
   }
-  const text = args.flag('json') ? `${JSON.stringify(analysisToJson(design, analysis))}\n` : marginTable(design, analysis, scanPath);
+  const verdict = analysis.report.verdict;
+  if (verdict.status === 'refused') {
+    throw new CliError(`no result: ${analysis.input === 'scan' ? `the scan ${scanPath ?? ''}` : 'the noise estimate'} gives no evidence to judge`, verdict.reasons);
+  }
+  const text = args.flag('json') ? `${JSON.stringify(analysisToJson(design, analysis, input.kind === 'scan' ? input.scan : undefined))}\n` : marginTable(design, analysis, scanPath);
   await writeOutput(context, args.value('out'), text);
-  return analysis.report.pass ? ExitCode.Ok : ExitCode.NotPassed;
+  return exitCodeOf(verdict);
+}
+
+/** 0 for a pass, 1 for a fail (a band short of the target or not covered), 2 when nothing was judged. */
+export function exitCodeOf(verdict: Verdict): ExitCode {
+  return verdict.status === 'pass' ? ExitCode.Ok : verdict.status === 'fail' ? ExitCode.NotPassed : ExitCode.BadInput;
 }
 
 function readNumber(args: ParsedArgs, name: string, min: number, max: number): number | undefined {
@@ -156,6 +169,8 @@ async function readMasks(args: ParsedArgs, context: CommandContext, design: Desi
 }
 
 const MHZ = (f: number): string => formatQuantity(f, 'Hz', 4);
+/** Six digits for a covered span, so that 29.998 MHz does not read as the band's 30 MHz. */
+const EDGE = (f: number): string => formatQuantity(f, 'Hz', 6);
 const DB = (x: number): string => (Number.isFinite(x) ? x.toFixed(1) : '–');
 
 function pointRow(point: MarginPoint): string {
@@ -172,8 +187,8 @@ export function marginTable(design: Design, analysis: EmissionsAnalysis, scanPat
   lines.push('');
   lines.push('band                     worst margin');
   for (const band of report.bands) {
-    const verdict = band.pass === undefined ? 'no limit here' : band.pass ? 'meets target' : 'BELOW TARGET';
-    lines.push(`${band.name.padEnd(24)} ${band.worst ? pointRow(band.worst) : '–'}  ${verdict}`);
+    lines.push(`${band.name.padEnd(24)} ${band.worst ? pointRow(band.worst) : '–'}  ${BAND_WORDS[band.status]}`);
+    lines.push(`${''.padEnd(24)} ${coverageText(band)}`);
   }
   lines.push('');
   lines.push(`worst peaks (lowest margin first):`);
@@ -201,24 +216,46 @@ export function marginTable(design: Design, analysis: EmissionsAnalysis, scanPat
   if (report.comparisons.some((c) => c.conservative)) lines.push('* a peak (or quasi-peak) reading judged against a lower-reading detector’s limit: conservative');
   for (const note of [...analysis.notes, ...report.notes]) lines.push(`note: ${note}`);
   lines.push('');
-  const failing = report.bands.filter((b) => b.pass === false).length;
-  lines.push(report.pass ? `RESULT: PASS, every band keeps ${report.targetMarginDb} dB of margin` : `RESULT: FAIL, ${failing} band${failing === 1 ? '' : 's'} below the ${report.targetMarginDb} dB target`);
+  lines.push(resultLine(report.verdict, report.targetMarginDb));
   return `${lines.join('\n')}\n`;
 }
 
-function analysisToJson(design: Design, analysis: EmissionsAnalysis): unknown {
+const BAND_WORDS: Readonly<Record<BandResult['status'], string>> = { pass: 'meets target', fail: 'BELOW TARGET', 'not-covered': 'NOT COVERED' };
+
+/** The band's evidence: "29 judged points, covering 150 kHz to 498 kHz", or why it is not covered. */
+function coverageText(band: BandResult): string {
+  if (band.status === 'not-covered') return `not covered: ${band.reason}`;
+  const span = band.coveredFromHz === undefined || band.coveredToHz === undefined ? '' : `, covering ${EDGE(band.coveredFromHz)} to ${EDGE(band.coveredToHz)}`;
+  const floor = band.coveredPoints - band.judgedPoints;
+  return `${band.judgedPoints} judged point${band.judgedPoints === 1 ? '' : 's'}${floor > 0 ? ` (${floor} more at the noise floor)` : ''}${span}`;
+}
+
+function resultLine(verdict: Verdict<BandResult>, target: number): string {
+  const points = `${verdict.judgedPoints} judged point${verdict.judgedPoints === 1 ? '' : 's'}`;
+  if (verdict.status === 'pass') return `RESULT: PASS, every band keeps ${target} dB of margin (${points})`;
+  const below = verdict.items.filter((b) => b.status === 'fail').length;
+  const uncovered = verdict.items.filter((b) => b.status === 'not-covered').length;
+  const parts: string[] = [];
+  if (below > 0) parts.push(`${below} band${below === 1 ? '' : 's'} below the ${target} dB target`);
+  if (uncovered > 0) parts.push(`${uncovered} band${uncovered === 1 ? '' : 's'} not covered`);
+  return `RESULT: FAIL, ${parts.join(', ') || describeShortfall(verdict)} (${points})`;
+}
+
+function analysisToJson(design: Design, analysis: EmissionsAnalysis, scan: Scan | undefined): unknown {
   const list = (a: Float64Array | undefined): (number | null)[] | undefined => (a ? Array.from(a, (x) => (Number.isFinite(x) ? x : null)) : undefined);
   return {
     design: design.name,
     input: analysis.input,
     targetMarginDb: analysis.report.targetMarginDb,
     pass: analysis.report.pass,
+    verdict: { status: analysis.report.verdict.status, judgedPoints: analysis.report.verdict.judgedPoints, reasons: analysis.report.verdict.reasons },
     masks: analysis.masks.map((m) => ({ id: m.id, name: m.name, detector: m.detector, origin: m.origin })),
     bands: analysis.report.bands,
     worst: analysis.report.worst,
     worstPeaks: analysis.report.worstPeaks,
     failingRanges: analysis.report.failingRanges,
     notes: [...analysis.notes, ...analysis.report.notes],
+    ...(scan ? { scanNotes: scan.notes, scanWarnings: scan.warnings ?? [] } : {}),
     frequencyHz: list(analysis.frequencyHz),
     predicted: analysis.predicted.map((s) => ({ label: s.label, detector: s.detector, levelDbuV: list(s.levelDbuV) })),
     comparisons: analysis.report.comparisons.map((c) => ({

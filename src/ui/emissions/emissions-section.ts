@@ -134,8 +134,13 @@ export class EmissionsSection extends LitElement {
       .analysis-status {
         margin: 4px 0 10px;
       }
-      .analysis-status.error {
+      .analysis-status.error,
+      .reader-warnings {
         color: var(--cp-error-text);
+      }
+      .analysis-status p,
+      .reader-warnings {
+        margin: 0;
       }
       .stale {
         opacity: 0.55;
@@ -399,8 +404,11 @@ export class EmissionsSection extends LitElement {
   private noise(): { noise: EmissionsNoise } | { reason: string } {
     if (this.noiseChoice === 'scan' && this.loaded) {
       const { scan } = this.loaded;
-      // Name, mode and columns: the rejected lines and notes stay on the page.
-      return { noise: { kind: 'scan', scan: { name: scan.name, tag: scan.tag, frequencyHz: scan.frequencyHz, traces: scan.traces.map((t) => ({ ...t })) } } };
+      // Name, mode, columns and the reader's warnings (hints for the verdict); rejected lines and notes stay on the page.
+      const warnings = scan.warnings && scan.warnings.length > 0 ? { warnings: [...scan.warnings] } : {};
+      return {
+        noise: { kind: 'scan', scan: { name: scan.name, tag: scan.tag, frequencyHz: scan.frequencyHz, traces: scan.traces.map((t) => ({ ...t })), ...warnings } },
+      };
     }
     if (this.hasEstimate) {
       if (this.noiseChoice !== 'estimate') this.noiseChoice = 'estimate';
@@ -664,9 +672,12 @@ export class EmissionsSection extends LitElement {
         const f = a.frequencyHz;
         const what = a.input === 'scan' ? `the scan “${a.scanPrediction?.scanName ?? ''}”` : 'the design’s noise estimate';
         const span = f.length > 0 ? `, ${formatFrequency(f[0]!)} to ${formatFrequency(f[f.length - 1]!)}` : '';
-        return html`<p class="analysis-status small muted" role="status" data-state="done">
-          Predicted from ${what}: ${f.length} points${span}, in ${Math.round(state.elapsedMs)} ms in the worker.
-        </p>`;
+        // The reader's warnings ("check the frequency unit …") belong beside the verdict they may explain.
+        const warnings = a.input === 'scan' ? (this.loaded?.scan.warnings ?? []) : [];
+        return html`<div class="analysis-status small" role="status" data-state="done">
+          <p class="muted">Predicted from ${what}: ${f.length} points${span}, in ${Math.round(state.elapsedMs)} ms in the worker.</p>
+          ${warnings.length > 0 ? html`<ul class="reader-warnings">${warnings.map((warning) => html`<li>Warning: ${warning}</li>`)}</ul>` : nothing}
+        </div>`;
       }
       case 'failed':
         return html`<div class="analysis-status small error" role="status" data-state="failed">

@@ -212,6 +212,24 @@ describe('<chokepoint-emissions>', () => {
     expect(importer.requested).toHaveLength(1);
   });
 
+  it('a headerless scan in MHz read as Hz: the reader’s warning in the status area, and no result in the table', async () => {
+    const { section, analyzer, importer } = await mount();
+    analyzer.answer();
+    await settle(section);
+    await chooseFile(section, 'headerless.csv', '0.15,80\n0.5,70\n5,60\n30,55\n');
+    importer.answer();
+    await settle(section);
+    const noise = analyzer.requested.at(-1)?.noise;
+    if (noise?.kind !== 'scan') throw new Error('expected a scan');
+    expect(noise.scan.warnings?.[0]).toMatch(/^check the frequency unit/u);
+    analyzer.answer();
+    await settle(section);
+    expect(text(root(section), '.analysis-status .reader-warnings')).toMatch(/^Warning: check the frequency unit: the highest frequency is 30 Hz/u);
+    const table = tableRoot(section);
+    expect(text(table, '.verdict strong')).toBe('NO RESULT');
+    expect(text(table, '.verdict .reasons')).toMatch(/nothing was judged: no point falls in any band: the scan spans 150 mHz to 30 Hz/u);
+  });
+
   it('lists every rejected line of a file it cannot use, and leaves the design and the previous scan as they were', async () => {
     const { section, analyzer, importer, edits } = await mount();
     analyzer.answer();
