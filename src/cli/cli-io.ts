@@ -4,11 +4,12 @@
  */
 export interface CliIo {
   /**
-   * Read a UTF-8 text file. When it cannot, reject with an Error that carries a Node-style `code`
-   * ("ENOENT", "EISDIR", "EACCES", …): the command line turns the code into words.
+   * Read a file's bytes (src/io/text-bytes.ts makes them text, or says why not). When it cannot,
+   * reject with an Error that carries a Node-style `code` ("ENOENT", "EISDIR", "EACCES", …): the
+   * command line turns the code into words.
    */
-  readTextFile(path: string): Promise<string>;
-  /** Write (create or replace) a UTF-8 text file; reject like readTextFile. */
+  readFile(path: string): Promise<Uint8Array>;
+  /** Write (create or replace) a UTF-8 text file; reject like readFile. */
   writeTextFile(path: string, text: string): Promise<void>;
   /** Write to standard output as is (no newline added). */
   stdout(text: string): void;

@@ -1,4 +1,5 @@
 import { parseJsonText } from '../io/json-text.ts';
+import { decodeText } from '../io/text-bytes.ts';
 import { type Design, formatIssue, readDesign, type ValidationIssue } from '../model/index.ts';
 import { describeFileError } from './cli-io.ts';
 import type { CommandContext } from './command.ts';
@@ -7,15 +8,22 @@ import { CliError } from './exit-codes.ts';
 /** The most problems listed for one file; the rest are counted. */
 export const MAX_LISTED_PROBLEMS = 30;
 
-/** Read a text file named on the command line, or fail with a message that names it. */
+/**
+ * Read a text file named on the command line, or fail with a message that names it: every file the
+ * command line reads comes through here, as bytes decoded by the one UTF-8 reader (src/io/text-bytes.ts).
+ */
 export async function readInputFile(context: CommandContext, path: string, what: string): Promise<string> {
   if (path === '-') throw new CliError(`reading ${what} from standard input is not supported: give a file name`);
   if (path === '') throw new CliError(`the file name of ${what} is empty`);
+  let bytes: Uint8Array;
   try {
-    return await context.io.readTextFile(path);
+    bytes = await context.io.readFile(path);
   } catch (error) {
     throw new CliError(`cannot read ${what} ${path}: ${describeFileError(error)}`);
   }
+  const decoded = decodeText(bytes);
+  if (!decoded.ok) throw new CliError(`cannot read ${what} ${path}: ${decoded.error.message}`);
+  return decoded.text;
 }
 
 /**

@@ -21,7 +21,7 @@ function writer(stream: NodeJS.WriteStream): (text: string) => void {
 }
 
 const io: CliIo = {
-  readTextFile: (path) => readFile(path, 'utf8'),
+  readFile: (path) => readFile(path),
   writeTextFile: (path, text) => writeFile(path, text, 'utf8'),
   stdout: writer(process.stdout),
   stderr: writer(process.stderr),

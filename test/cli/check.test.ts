@@ -71,7 +71,7 @@ describe('chokepoint check: the margin table of the invented demo against its in
     [['check', DEMO], /either --scan <file> or --estimate/u],
     [['check', DEMO, '--scan', 'missing.csv'], /cannot read the scan missing\.csv/u],
     [['check', DEMO, '--scan', SCAN, '--limit', 'no-such-limit'], /neither a preset/u],
-    [['check', DEMO, '--scan', SCAN, '--margin', 'lots'], /--margin must be a number/u],
+    [['check', DEMO, '--scan', SCAN, '--margin', 'lots'], /--margin must be a plain decimal number/u],
     [['check', DEMO, '--scan', SCAN, '--attribution', 'sideways'], /--attribution must be one of/u],
     [['check', DEMO, '--scan', 'bad.csv'], /bad\.csv/u],
   ])('bad input %j exits 2 naming the problem', async (argv, message) => {

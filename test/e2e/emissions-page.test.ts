@@ -240,6 +240,21 @@ describe('the emissions section of the planner', () => {
     planner.expectOnlyLocalTraffic(record);
   });
 
+  it('refuses a UTF-16 scan file by name instead of reading replaced bytes', async () => {
+    const record = await planner.open();
+    const { page } = record;
+    await analysisDone(page, /noise estimate/u);
+    const utf16 = Buffer.from('\uFEFF# INVENTED\nFrequency [MHz],Peak [dBµV]\n0.15,60\n30,40\n', 'utf16le');
+    await section(page).locator('input[type="file"]').setInputFiles({ name: 'invented-utf16.csv', mimeType: 'text/csv', buffer: utf16 });
+    const error = section(page).locator('.import-error');
+    await error.waitFor({ timeout: 30_000 });
+    await expect(error.locator('p').innerText()).resolves.toBe(
+      'invented-utf16.csv could not be used: not UTF-8 text: the file is UTF-16 LE text (its byte-order mark says so): save it as UTF-8',
+    );
+    expect(record.consoleErrors).toEqual([]);
+    planner.expectOnlyLocalTraffic(record);
+  });
+
   it('reads and judges a million-point scan in the workers while the page stays responsive', { timeout: 120_000 }, async () => {
     const record = await planner.open();
     const { page } = record;

@@ -14,18 +14,18 @@ export function repoFile(path: string): string {
 }
 
 /**
- * Run the command line in-process: `files` maps paths to contents (anything else is ENOENT),
- * writes are kept in `written`, nothing touches the disk or the real console.
+ * Run the command line in-process: `files` maps paths to contents, text (written as UTF-8) or bytes
+ * (anything else is ENOENT), writes are kept in `written`, nothing touches the disk or the real console.
  */
-export async function runInMemory(argv: string[], files: Record<string, string>): Promise<CliRun> {
+export async function runInMemory(argv: string[], files: Record<string, string | Uint8Array>): Promise<CliRun> {
   const written = new Map<string, string>();
   let stdout = '';
   let stderr = '';
   const io: CliIo = {
-    readTextFile: async (path) => {
+    readFile: async (path) => {
       const text = files[path];
       if (text === undefined) throw Object.assign(new Error(`ENOENT: no such file, '${path}'`), { code: 'ENOENT' });
-      return text;
+      return typeof text === 'string' ? new TextEncoder().encode(text) : text;
     },
     writeTextFile: async (path, text) => {
       written.set(path, text);

@@ -3,7 +3,7 @@ import { readMaskCsv } from '../../io/mask-csv.ts';
 import { formatLineIssue } from '../../io/text-issues.ts';
 import { readScanText, type ScanCsvOptions } from '../../io/scan-csv.ts';
 import type { Design, LimitMask } from '../../model/design.ts';
-import { ATTRIBUTIONS } from '../../model/emissions-schema.ts';
+import { ATTRIBUTIONS, MAX_LIMIT_MASKS } from '../../model/emissions-schema.ts';
 import { formatQuantity } from '../../model/index.ts';
 import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../../spectrum/emissions-analysis.ts';
 import { LEVEL_UNIT_NAMES, type LevelUnitName } from '../../spectrum/level-units.ts';
@@ -15,6 +15,7 @@ import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { listProblems, loadDesign, readInputFile } from '../design-input.ts';
 import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
+import { readDecimalOption, readWholeOption } from '../numeric-options.ts';
 import { tell, writeOutput } from '../output.ts';
 
 const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
@@ -56,9 +57,9 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
   const scanPath = args.value('scan');
   const useEstimate = args.flag('estimate');
   if ((scanPath === undefined) === !useEstimate) throw new UsageError('give either --scan <file> or --estimate', 'check');
-  const targetMarginDb = readNumber(args, 'margin', -40, 60);
-  const noiseFloorDbuV = readNumber(args, 'noise-floor', -200, 300);
-  const peaks = readNumber(args, 'peaks', 1, 1000);
+  const targetMarginDb = readDecimalOption(args, 'margin', 'check', { min: -40, max: 60, unit: DB_UNIT });
+  const noiseFloorDbuV = readDecimalOption(args, 'noise-floor', 'check', { min: -200, max: 300, unit: DB_UNIT });
+  const peaks = readWholeOption(args, 'peaks', 'check', 1, 1000);
   const attribution = readChoice(args, 'attribution', ATTRIBUTIONS);
   const scanOptions = readScanOptions(args, scanPath);
 
@@ -107,15 +108,8 @@ export function exitCodeOf(verdict: Verdict): ExitCode {
   return verdict.status === 'pass' ? ExitCode.Ok : verdict.status === 'fail' ? ExitCode.NotPassed : ExitCode.BadInput;
 }
 
-function readNumber(args: ParsedArgs, name: string, min: number, max: number): number | undefined {
-  const text = args.value(name);
-  if (text === undefined) return undefined;
-  const value = Number(text.trim().replace(/\s*dB(µV|uV)?$/iu, ''));
-  if (!(Number.isFinite(value) && value >= min && value <= max) || text.trim() === '') {
-    throw new UsageError(`--${name} must be a number from ${min} to ${max}, got "${text}"`, 'check');
-  }
-  return value;
-}
+/** "6 dB", "20 dBµV": a unit after a dB figure is allowed and dropped. */
+const DB_UNIT = /\s*dB(µV|uV)?$/iu;
 
 function readChoice<T extends string>(args: ParsedArgs, name: string, choices: readonly T[]): T | undefined {
   const text = args.value(name);
@@ -133,7 +127,7 @@ function readScanOptions(args: ParsedArgs, scanPath: string | undefined): ScanCs
   const levelText = args.value('level-unit');
   const levelUnit: LevelUnitName | undefined = levelText === undefined ? undefined : LEVEL_UNIT_NAMES.find((u) => u.toLowerCase() === levelText.toLowerCase());
   if (levelText !== undefined && levelUnit === undefined) throw new UsageError(`--level-unit must be dBuV, dBm, dBuA, V or dBV, got "${levelText}"`, 'check');
-  const transfer = readNumber(args, 'transfer-impedance', 1e-6, 1e6);
+  const transfer = readDecimalOption(args, 'transfer-impedance', 'check', { min: 1e-6, max: 1e6, unit: /\s*(Ω|ohms?)$/iu });
   return {
     name: scanPath ?? 'scan',
     ...(tag ? { tag } : {}),
@@ -151,8 +145,15 @@ async function readMasks(args: ParsedArgs, context: CommandContext, design: Desi
     if (own.length === 0) throw new CliError('no limit to judge against: give --limit <preset ids or mask files> or add emissions.masks to the design');
     return [...own];
   }
+  const items = text.split(',').map((s) => s.trim()).filter((s) => s !== '');
+  if (items.length === 0) throw new UsageError('--limit needs at least one preset id or file', 'check');
+  const repeated = items.find((item, i) => items.indexOf(item) !== i);
+  if (repeated !== undefined) throw new UsageError(`--limit: "${repeated}" is given twice; give each limit once`, 'check');
+  if (items.length > MAX_LIMIT_MASKS) {
+    throw new UsageError(`--limit gives ${items.length} limits; a design is judged against at most ${MAX_LIMIT_MASKS}`, 'check');
+  }
   const masks: LimitMask[] = [];
-  for (const item of text.split(',').map((s) => s.trim()).filter((s) => s !== '')) {
+  for (const item of items) {
     if (findPreset(item)) {
       masks.push(copyPreset(item));
       continue;
@@ -164,7 +165,6 @@ async function readMasks(args: ParsedArgs, context: CommandContext, design: Desi
     if (!read.ok) throw new CliError(`${item} is not a usable limit mask:`, listProblems(read.issues.map(formatLineIssue)));
     masks.push(read.value.mask);
   }
-  if (masks.length === 0) throw new UsageError('--limit needs at least one preset id or file', 'check');
   return masks;
 }
 

@@ -6,6 +6,7 @@ import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { loadDesign } from '../design-input.ts';
 import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
+import { readWholeOption } from '../numeric-options.ts';
 import { tell, writeOutput } from '../output.ts';
 
 const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
@@ -76,26 +77,29 @@ interface PlanOverrides {
   readonly pointsPerDecade?: number;
 }
 
+/**
+ * The frequencies an option may give, each on its own: from 1 mHz to 1 THz. Beyond them the
+ * number is not a plan but a typo (1e-320 Hz is below the smallest normal double and made the
+ * span of decades infinite), and the message names the option, not a field it happened to upset.
+ */
+export const OPTION_FREQUENCY_RANGE_HZ = { min: 1e-3, max: 1e12 } as const;
+
 function readFrequency(args: ParsedArgs, name: string): number | undefined {
   const text = args.value(name);
   if (text === undefined) return undefined;
   const parsed = parseQuantity(text, 'Hz');
   if (!parsed.ok) throw new UsageError(`--${name}: cannot read "${text}" as a frequency: ${parsed.reason}`, 'sweep');
-  if (!(parsed.value > 0)) throw new UsageError(`--${name} must be a positive frequency, got "${text}"`, 'sweep');
+  const { min, max } = OPTION_FREQUENCY_RANGE_HZ;
+  if (!(parsed.value >= min && parsed.value <= max)) {
+    throw new UsageError(`--${name} must be a frequency from ${formatQuantity(min, 'Hz')} to ${formatQuantity(max, 'Hz')}, got "${text}"`, 'sweep');
+  }
   return parsed.value;
 }
 
 function readPlanOverrides(args: ParsedArgs): PlanOverrides {
   const startHz = readFrequency(args, 'start');
   const stopHz = readFrequency(args, 'stop');
-  const densityText = args.value('points-per-decade');
-  let pointsPerDecade: number | undefined;
-  if (densityText !== undefined) {
-    pointsPerDecade = /^\d+$/u.test(densityText.trim()) ? Number(densityText) : Number.NaN;
-    if (!(Number.isInteger(pointsPerDecade) && pointsPerDecade >= 1 && pointsPerDecade <= 100_000)) {
-      throw new UsageError(`--points-per-decade must be a whole number from 1 to 100000, got "${densityText}"`, 'sweep');
-    }
-  }
+  const pointsPerDecade = readWholeOption(args, 'points-per-decade', 'sweep', 1, 100_000);
   return { startHz, stopHz, pointsPerDecade };
 }
 
@@ -123,8 +127,11 @@ function applyPlanOverrides(design: Design, overrides: PlanOverrides): Design {
   }
   const checked = frequencyPlanSchema.safeParse(merged);
   if (!checked.success) {
+    // A problem of the plan as a whole (too many points) is the three values together: name each one's source.
+    const whole = `from ${formatQuantity(merged.startHz, 'Hz')} (${source('startHz')}) to ${formatQuantity(merged.stopHz, 'Hz')} (${source('stopHz')}) at ${merged.pointsPerDecade} points per decade (${source('pointsPerDecade')})`;
     const details = checked.error.issues.map((issue) => {
       const key = issue.path[0];
+      if (key === 'pointsPerDecade' && /points; at most/u.test(issue.message)) return `the sweep ${whole}: ${issue.message}`;
       const where = typeof key === 'string' && key in PLAN_FIELD_OPTION ? source(key as keyof FrequencyPlan) : 'frequency plan';
       return `${where}: ${issue.message}`;
     });

@@ -489,9 +489,11 @@ export class EmissionsSection extends LitElement {
     const input = event.target as HTMLInputElement;
     const file = input.files?.[0];
     if (!file) return;
-    let text: string;
+    // The bytes, not file.text(): the worker decodes them as UTF-8 or says why it cannot (a Latin-1
+    // or UTF-16 export), where file.text() would replace what does not read without a word.
+    let bytes: Uint8Array;
     try {
-      text = await file.text();
+      bytes = new Uint8Array(await file.arrayBuffer());
     } catch (cause) {
       const reason = cause instanceof Error ? cause.message : String(cause);
       this.importState = { kind: 'failed', fileName: file.name, message: `the file could not be read: ${reason}`, rejected: [], notes: [] };
@@ -500,7 +502,7 @@ export class EmissionsSection extends LitElement {
       // Choosing the same file again must read it again.
       input.value = '';
     }
-    await this.importText(text, file.name, false);
+    await this.importText(bytes, file.name, false);
   }
 
   private async loadDemo(): Promise<void> {
@@ -518,8 +520,8 @@ export class EmissionsSection extends LitElement {
     await this.importText(text, DEMO_SCAN_NAME, true);
   }
 
-  /** Read a scan's text in the scan-import worker. A failure changes nothing but the message shown. */
-  private async importText(text: string, fileName: string, invented: boolean): Promise<void> {
+  /** Read a scan (a file's bytes, or text) in the scan-import worker. A failure changes nothing but the message shown. */
+  private async importText(content: string | Uint8Array, fileName: string, invented: boolean): Promise<void> {
     this.importCount += 1;
     const count = this.importCount;
     const importer = this.scanImporter;
@@ -535,7 +537,7 @@ export class EmissionsSection extends LitElement {
       ...(this.transferImpedanceOhm !== undefined ? { transferImpedanceOhm: this.transferImpedanceOhm } : {}),
     };
     this.importState = { kind: 'reading', fileName, fractionDone: 0 };
-    const reply = await importer.importScan(text, options, (fractionDone) => {
+    const reply = await importer.importScan(content, options, (fractionDone) => {
       if (count === this.importCount && this.importState.kind === 'reading') this.importState = { kind: 'reading', fileName, fractionDone };
     });
     if (count !== this.importCount) return;
