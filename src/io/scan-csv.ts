@@ -11,7 +11,7 @@ import {
   ohmToDbOhm,
   voltsToDbuV,
 } from '../spectrum/level-units.ts';
-import type { RejectedLine, Scan, ScanTag, ScanTrace } from '../spectrum/spectrum-types.ts';
+import { DEFAULT_SCAN_TAG, type RejectedLine, type Scan, type ScanTag, type ScanTrace } from '../spectrum/spectrum-types.ts';
 import { parseDecimal, quoteField } from './decimal-number.ts';
 import { type FrequencyUnit, frequencyUnitFactor, parseFrequencyUnit } from './frequency-unit.ts';
 import type { TableDelimiter } from './impedance-table-csv.ts';
@@ -81,7 +81,6 @@ const LISTED_SKIPS = 50;
 
 const DELIMITERS: readonly TableDelimiter[] = [',', ';', '\t', 'whitespace'];
 const DEFAULT_NAME = 'scan';
-const DEFAULT_TAG: ScanTag = 'total';
 
 /** Read a scan from text. See readScanTextWithProgress for the same with progress reports. */
 export function readScanText(text: string, options: ScanCsvOptions = {}): ScanReadResult {
@@ -976,10 +975,10 @@ function packScan(
   const warnings: string[] = [];
   plausibility(frequencyHz, scanTraces, columns, warnings);
   notes.push(...warnings);
-  if (options.tag === undefined) notes.push(`no tag given: read as "${DEFAULT_TAG}" (a line's level, mode unknown)`);
+  if (options.tag === undefined) notes.push(`no tag given: read as "${DEFAULT_SCAN_TAG}" (a line's level, mode unknown)`);
   return {
     name: options.name ?? DEFAULT_NAME,
-    tag: options.tag ?? DEFAULT_TAG,
+    tag: options.tag ?? DEFAULT_SCAN_TAG,
     frequencyHz,
     traces: scanTraces,
     rejected,

@@ -10,7 +10,7 @@ import { LEVEL_UNIT_NAMES, type LevelUnitName } from '../../spectrum/level-units
 import { copyPreset, findPreset, LIMIT_PRESETS } from '../../spectrum/limit-presets.ts';
 import type { BandResult, MarginPoint } from '../../spectrum/margin.ts';
 import { describeShortfall, type Verdict } from '../../spectrum/verdict.ts';
-import { type Scan, SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import { DEFAULT_SCAN_TAG, type Scan, SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
 import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { listProblems, loadDesign, readInputFile } from '../design-input.ts';
@@ -36,7 +36,7 @@ export const checkCommand: Command = {
     { name: 'estimate', description: 'use the design’s noise estimate (emissions.estimate) instead of a scan' },
     { name: 'limit', value: 'ids', description: `limit masks: preset ids or mask CSV files, comma-separated (presets: ${LIMIT_PRESETS.map((p) => p.id).join(', ')})` },
     { name: 'margin', value: 'dB', description: 'target margin below every limit (default: the design’s, else 6)' },
-    { name: 'scan-tag', value: 'tag', description: `what the scan measured: ${SCAN_TAGS.join(', ')} (default total)` },
+    { name: 'scan-tag', value: 'tag', description: `what the scan measured: ${SCAN_TAGS.join(', ')} (default ${DEFAULT_SCAN_TAG}: a line's level, mode unknown)` },
     { name: 'attribution', value: 'mode', description: `for a scan of unknown mode: ${ATTRIBUTIONS.join(', ')} (default: the design’s, else both)` },
     { name: 'noise-floor', value: 'dBµV', description: 'scan points at or below this level are left out of the required attenuation' },
     { name: 'frequency-unit', value: 'unit', description: 'the scan’s frequency unit when its header names none: Hz, kHz, MHz, GHz' },
@@ -48,7 +48,7 @@ export const checkCommand: Command = {
   ],
   examples: [
     { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --limit cispr32-class-b-qp,cispr32-class-b-av`, description: 'the invented demo against its invented scan, class B' },
-    { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --margin 3 --json -o check.json`, description: 'the design’s own limits, 3 dB target, as JSON' },
+    { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --margin 3 --json -o out/check.json`, description: 'the design’s own limits, 3 dB target, as JSON' },
   ],
   run: runCheck,
 };

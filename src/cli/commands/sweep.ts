@@ -31,7 +31,7 @@ export const sweepCommand: Command = {
   ],
   examples: [
     { command: `chokepoint sweep ${DEMO}`, description: 'CSV on standard output' },
-    { command: `chokepoint sweep ${DEMO} --json --out sweep.json`, description: 'JSON into a file' },
+    { command: `chokepoint sweep ${DEMO} --json --out out/sweep.json`, description: 'JSON into a file' },
     { command: `chokepoint sweep ${DEMO} --start 150k --stop 30MHz --points-per-decade 50 --no-refine`, description: 'a quick, coarse look at the CISPR band B range' },
   ],
   run: runSweep,

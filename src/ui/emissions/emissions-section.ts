@@ -8,7 +8,7 @@ import { ATTRIBUTIONS, type Attribution } from '../../model/emissions-schema.ts'
 import { formatIssue, readDesign } from '../../model/index.ts';
 import type { EmissionsAnalysis } from '../../spectrum/emissions-analysis.ts';
 import type { LevelUnitName } from '../../spectrum/level-units.ts';
-import { SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import { DEFAULT_SCAN_TAG, SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
 import type { EmissionsNoise } from '../../../workers/emissions-protocol.ts';
 import type { ScanImportOptions } from '../../../workers/scan-import-api.ts';
 import type { PlotFactory } from '../charts/chart-controller.ts';
@@ -370,7 +370,8 @@ export class EmissionsSection extends LitElement {
   @state() private noiseChoice: NoiseChoice = 'estimate';
   @state() private loaded: LoadedScan | undefined;
   @state() private importState: ImportState = { kind: 'idle' };
-  @state() private scanTag: ScanTag = 'line1';
+  /** What the next scan measured: the same default as the command line's (DEFAULT_SCAN_TAG says why). */
+  @state() private scanTag: ScanTag = DEFAULT_SCAN_TAG;
   @state() private frequencyUnit: FrequencyUnit | undefined;
   @state() private levelUnit: LevelUnitName | undefined;
   /** The current probe's transfer impedance, Ω, for levels in dBµA. */

@@ -1,6 +1,8 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { readDesign } from '../../../src/model/index.ts';
+import { readScanText } from '../../../src/io/scan-csv.ts';
 import { findPreset } from '../../../src/spectrum/limit-presets.ts';
+import { DEFAULT_SCAN_TAG } from '../../../src/spectrum/spectrum-types.ts';
 import type { PlotElement } from '../../../src/ui/charts/plot-element.ts';
 import { type DesignEditEvent, EmissionsSection } from '../../../src/ui/emissions/emissions-section.ts';
 import type { MarginTable } from '../../../src/ui/emissions/margin-table.ts';
@@ -210,6 +212,22 @@ describe('<chokepoint-emissions>', () => {
     await settle(section);
     expect(analyzer.requested.at(-1)?.noise.kind).toBe('scan');
     expect(importer.requested).toHaveLength(1);
+  });
+
+  it('reads an untagged scan with the command line’s defaults: the same tag, units and trace labels', async () => {
+    const { section, analyzer, importer } = await mount();
+    analyzer.answer();
+    await settle(section);
+    await chooseFile(section, 'untagged.csv', scanText());
+    const options = importer.requested[0]!.options!;
+    // Only what the page knows (the file's name) and the shared default tag; units stay "as the file says".
+    expect(options).toEqual({ name: 'untagged.csv', tag: DEFAULT_SCAN_TAG });
+    const page = importer.answer();
+    const cli = readScanText(scanText(), { name: 'untagged.csv' });
+    if (!page.ok || !cli.ok) throw new Error('both must read');
+    expect(page.scan.tag).toBe(cli.scan.tag);
+    expect(page.scan.frequencyHz).toEqual(cli.scan.frequencyHz);
+    expect(page.scan.traces).toEqual(cli.scan.traces);
   });
 
   it('a headerless scan in MHz read as Hz: the reader’s warning in the status area, and no result in the table', async () => {
