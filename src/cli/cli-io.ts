@@ -6,9 +6,10 @@ export interface CliIo {
   /**
    * Read a file's bytes (src/io/text-bytes.ts makes them text, or says why not). When it cannot,
    * reject with an Error that carries a Node-style `code` ("ENOENT", "EISDIR", "EACCES", …): the
-   * command line turns the code into words.
+   * command line turns the code into words. With `maxBytes`, a larger file is not read: reject with
+   * code "EFBIG" and its `size`.
    */
-  readFile(path: string): Promise<Uint8Array>;
+  readFile(path: string, maxBytes?: number): Promise<Uint8Array>;
   /** Write (create or replace) a UTF-8 text file; reject like readFile. */
   writeTextFile(path: string, text: string): Promise<void>;
   /** Write to standard output as is (no newline added). */

@@ -3,7 +3,7 @@
  * process.argv, the file system and the standard streams into runCli and sets the exit code.
  * vite.cli.config.ts bundles it into dist-cli/chokepoint.mjs; bin/chokepoint.mjs runs that.
  */
-import { readFile, writeFile } from 'node:fs/promises';
+import { readFile, stat, writeFile } from 'node:fs/promises';
 import process from 'node:process';
 import { version } from '../../package.json';
 import { type CliIo, runCli } from './run-cli.ts';
@@ -21,7 +21,13 @@ function writer(stream: NodeJS.WriteStream): (text: string) => void {
 }
 
 const io: CliIo = {
-  readFile: (path) => readFile(path),
+  readFile: async (path, maxBytes) => {
+    if (maxBytes !== undefined) {
+      const { size } = await stat(path);
+      if (size > maxBytes) throw Object.assign(new Error(`${path} holds ${size} bytes`), { code: 'EFBIG', size });
+    }
+    return readFile(path);
+  },
   writeTextFile: (path, text) => writeFile(path, text, 'utf8'),
   stdout: writer(process.stdout),
   stderr: writer(process.stderr),

@@ -33,6 +33,7 @@ type Utf8DecoderConstructor = new (label: string, options?: { fatal?: boolean; i
 // pure layers compile without DOM or Node types.
 const Decoder = (globalThis as unknown as { TextDecoder: Utf8DecoderConstructor }).TextDecoder;
 const strict = new Decoder('utf-8', { fatal: true, ignoreBOM: true });
+const lenient = new Decoder('utf-8', { ignoreBOM: true });
 
 /** Read bytes as UTF-8 text; a UTF-8 byte-order mark is dropped; anything else that is not UTF-8 is refused. */
 export function decodeText(bytes: Uint8Array): DecodedText {
@@ -49,6 +50,11 @@ export function decodeText(bytes: Uint8Array): DecodedText {
     const what = guess ? `it looks like ${guess} text without a byte-order mark: save it as UTF-8` : 'this is not a text file';
     return refuse(guess, line, column, start + nul, `a NUL byte at line ${line}, column ${column}: ${what}`);
   }
+  // The lenient decoder is about twice as fast, and it writes U+FFFD only where the bytes are not
+  // UTF-8: text without one is exactly what the strict decoder would give. With one (which a file
+  // may also hold as a character), the strict decoder decides.
+  const text = lenient.decode(body);
+  if (!text.includes('\uFFFD')) return { ok: true, text, byteOrderMark: start > 0 };
   try {
     return { ok: true, text: strict.decode(body), byteOrderMark: start > 0 };
   } catch {

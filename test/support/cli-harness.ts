@@ -22,10 +22,13 @@ export async function runInMemory(argv: string[], files: Record<string, string |
   let stdout = '';
   let stderr = '';
   const io: CliIo = {
-    readFile: async (path) => {
+    readFile: async (path, maxBytes) => {
       const text = files[path];
       if (text === undefined) throw Object.assign(new Error(`ENOENT: no such file, '${path}'`), { code: 'ENOENT' });
-      return typeof text === 'string' ? new TextEncoder().encode(text) : text;
+      const bytes = typeof text === 'string' ? new TextEncoder().encode(text) : text;
+      // As node-main.ts does: a file above the limit is not read.
+      if (maxBytes !== undefined && bytes.length > maxBytes) throw Object.assign(new Error('too large'), { code: 'EFBIG', size: bytes.length });
+      return bytes;
     },
     writeTextFile: async (path, text) => {
       written.set(path, text);

@@ -2,6 +2,7 @@ import { parseFrequencyUnit } from '../../io/frequency-unit.ts';
 import { readMaskCsv } from '../../io/mask-csv.ts';
 import { formatLineIssue } from '../../io/text-issues.ts';
 import { readScanText, type ScanCsvOptions } from '../../io/scan-csv.ts';
+import { MAX_SCAN_FILE_BYTES, scanFileTooLarge } from '../../io/scan-limits.ts';
 import type { Design, LimitMask } from '../../model/design.ts';
 import { ATTRIBUTIONS, MAX_LIMIT_MASKS } from '../../model/emissions-schema.ts';
 import { formatQuantity } from '../../model/index.ts';
@@ -67,7 +68,7 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
   const masks = await readMasks(args, context, design);
   let input: NoiseInput;
   if (scanPath !== undefined) {
-    const read = readScanText(await readInputFile(context, scanPath, 'the scan'), scanOptions);
+    const read = readScanText(await readInputFile(context, scanPath, 'the scan', { maxBytes: MAX_SCAN_FILE_BYTES, tooLarge: scanFileTooLarge }), scanOptions);
     if (!read.ok) {
       throw new CliError(`${scanPath}: ${read.error.message}`, listProblems(read.error.rejected.map((r) => `line ${r.line}: ${r.reason}`)));
     }

@@ -3,6 +3,7 @@ import { customElement, property, state } from 'lit/decorators.js';
 import type { EmissionsRequester } from '../../client/emissions-client.ts';
 import type { ScanImportClient } from '../../client/scan-import-client.ts';
 import type { FrequencyUnit } from '../../io/frequency-unit.ts';
+import { MAX_SCAN_FILE_BYTES, scanFileTooLarge } from '../../io/scan-limits.ts';
 import type { Design } from '../../model/design.ts';
 import { ATTRIBUTIONS, type Attribution } from '../../model/emissions-schema.ts';
 import { formatIssue, readDesign } from '../../model/index.ts';
@@ -490,6 +491,12 @@ export class EmissionsSection extends LitElement {
     const input = event.target as HTMLInputElement;
     const file = input.files?.[0];
     if (!file) return;
+    if (file.size > MAX_SCAN_FILE_BYTES) {
+      // Refused unread, as the command line does: reading it could take the page's memory.
+      input.value = '';
+      this.importState = { kind: 'failed', fileName: file.name, message: scanFileTooLarge(file.size), rejected: [], notes: [] };
+      return;
+    }
     // The bytes, not file.text(): the worker decodes them as UTF-8 or says why it cannot (a Latin-1
     // or UTF-16 export), where file.text() would replace what does not read without a word.
     let bytes: Uint8Array;
@@ -675,10 +682,13 @@ export class EmissionsSection extends LitElement {
         const f = a.frequencyHz;
         const what = a.input === 'scan' ? `the scan “${a.scanPrediction?.scanName ?? ''}”` : 'the design’s noise estimate';
         const span = f.length > 0 ? `, ${formatFrequency(f[0]!)} to ${formatFrequency(f[f.length - 1]!)}` : '';
+        // A long scan is judged at the receiver's resolution (docs/emissions.md, "Large scans"): say so.
+        const points = a.scanPoints;
+        const count = points && points.analysed < points.read ? `${points.read} points${span} (judged at ${points.analysed}, binned to the receiver’s resolution)` : `${f.length} points${span}`;
         // The reader's warnings ("check the frequency unit …") belong beside the verdict they may explain.
         const warnings = a.input === 'scan' ? (this.loaded?.scan.warnings ?? []) : [];
         return html`<div class="analysis-status small" role="status" data-state="done">
-          <p class="muted">Predicted from ${what}: ${f.length} points${span}, in ${Math.round(state.elapsedMs)} ms in the worker.</p>
+          <p class="muted">Predicted from ${what}: ${count}, in ${Math.round(state.elapsedMs)} ms in the worker.</p>
           ${warnings.length > 0 ? html`<ul class="reader-warnings">${warnings.map((warning) => html`<li>Warning: ${warning}</li>`)}</ul>` : nothing}
         </div>`;
       }
