@@ -12,6 +12,12 @@ export interface CliIo {
   readFile(path: string, maxBytes?: number): Promise<Uint8Array>;
   /** Write (create or replace) a UTF-8 text file; reject like readFile. */
   writeTextFile(path: string, text: string): Promise<void>;
+  /**
+   * Write text made piece by piece, to a file (created or replaced) or, with no path, to standard
+   * output, taking the next piece only when the last has gone (so a million-row output never sits in
+   * memory whole); reject like writeTextFile. Optional: without it the pieces are joined and written.
+   */
+  writeChunks?(path: string | undefined, chunks: Iterable<string>): Promise<void>;
   /** Write to standard output as is (no newline added). */
   stdout(text: string): void;
   /** Write to standard error as is (no newline added). */

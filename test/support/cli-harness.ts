@@ -6,6 +6,8 @@ export interface CliRun {
   readonly stdout: string;
   readonly stderr: string;
   readonly written: ReadonlyMap<string, string>;
+  /** How many pieces each streamed output came in ("-" for standard output). */
+  readonly pieces: ReadonlyMap<string, number>;
 }
 
 /** A repository file's text (paths relative to the repository root). */
@@ -19,6 +21,7 @@ export function repoFile(path: string): string {
  */
 export async function runInMemory(argv: string[], files: Record<string, string | Uint8Array>): Promise<CliRun> {
   const written = new Map<string, string>();
+  const pieces = new Map<string, number>();
   let stdout = '';
   let stderr = '';
   const io: CliIo = {
@@ -33,6 +36,17 @@ export async function runInMemory(argv: string[], files: Record<string, string |
     writeTextFile: async (path, text) => {
       written.set(path, text);
     },
+    writeChunks: async (path, chunks) => {
+      let text = '';
+      let count = 0;
+      for (const chunk of chunks) {
+        text += chunk;
+        count += 1;
+      }
+      pieces.set(path ?? '-', count);
+      if (path === undefined) stdout += text;
+      else written.set(path, text);
+    },
     stdout: (text) => {
       stdout += text;
     },
@@ -41,5 +55,5 @@ export async function runInMemory(argv: string[], files: Record<string, string |
     },
     version: 'test',
   };
-  return { code: await runCli(argv, io), stdout, stderr, written };
+  return { code: await runCli(argv, io), stdout, stderr, written, pieces };
 }

@@ -1,5 +1,5 @@
 import { sweepDesign } from '../../engine/index.ts';
-import { EXPORT_COLUMN_SETS, type ExportColumnSet, sweepToCsv, sweepToJson } from '../../io/sweep-export.ts';
+import { EXPORT_COLUMN_SETS, type ExportColumnSet, sweepCsvChunks, sweepJsonChunks } from '../../io/sweep-export.ts';
 import { frequencyPlanSchema } from '../../model/design-schema.ts';
 import { type Design, type FrequencyPlan, formatQuantity, parseQuantity } from '../../model/index.ts';
 import type { ParsedArgs } from '../args.ts';
@@ -7,7 +7,7 @@ import type { Command, CommandContext } from '../command.ts';
 import { loadDesign } from '../design-input.ts';
 import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
 import { readWholeOption } from '../numeric-options.ts';
-import { tell, writeOutput } from '../output.ts';
+import { tell, writeOutputChunks } from '../output.ts';
 
 const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
 
@@ -45,11 +45,12 @@ async function runSweep(args: ParsedArgs, context: CommandContext): Promise<numb
   const planned = applyPlanOverrides(design, overrides);
 
   const result = sweepDesign(planned, { refine: !args.flag('no-refine') });
-  const text = args.flag('json')
-    ? `${JSON.stringify(sweepToJson(result, { columns, generator: `${context.program} ${context.io.version}` }))}\n`
-    : sweepToCsv(result, { columns });
+  // In pieces: a million-point sweep is written without ever being one string.
+  const chunks = args.flag('json')
+    ? withLineEnd(sweepJsonChunks(result, { columns, generator: `${context.program} ${context.io.version}` }))
+    : sweepCsvChunks(result, { columns });
   const out = args.value('out');
-  await writeOutput(context, out, text);
+  await writeOutputChunks(context, out, chunks);
 
   if (!args.flag('quiet')) {
     for (const warning of result.warnings) tell(context, `warning: ${warning.message}`);
@@ -62,6 +63,11 @@ async function runSweep(args: ParsedArgs, context: CommandContext): Promise<numb
     }
   }
   return ExitCode.Ok;
+}
+
+function* withLineEnd(chunks: Iterable<string>): Generator<string> {
+  yield* chunks;
+  yield '\n';
 }
 
 function readColumnSet(text: string | undefined): ExportColumnSet {
