@@ -323,13 +323,24 @@ function forEachBodyRow(
   for (let start = 0; start < length || start === 0; ) {
     const newline = body.indexOf('\n', start);
     const end = newline === -1 ? length : newline;
-    const line = tabs ? body.slice(start, end).replace(/\t/gu, ' ') : body.slice(start, end);
     fields.length = 0;
-    for (let from = 0; ; ) {
-      const at = line.indexOf(separator, from);
-      fields.push(at === -1 ? line.slice(from) : line.slice(from, at));
-      if (at === -1) break;
-      from = at + 1;
+    if (tabs) {
+      const line = body.slice(start, end).replace(/\t/gu, ' ');
+      for (let from = 0; ; ) {
+        const at = line.indexOf(separator, from);
+        fields.push(at === -1 ? line.slice(from) : line.slice(from, at));
+        if (at === -1) break;
+        from = at + 1;
+      }
+    } else {
+      // Fields cut straight from the body: no string per line.
+      for (let from = start; ; ) {
+        const found = body.indexOf(separator, from);
+        const at = found === -1 || found > end ? end : found;
+        fields.push(body.slice(from, at));
+        if (at === end) break;
+        from = at + 1;
+      }
     }
     onRow(cleanFields(fields, delimiter), newline === -1 ? length : newline + 1, false);
     if (newline === -1) break;
@@ -744,7 +755,7 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
     const rowLine = line;
     for (let at = body.indexOf('\n', rowStart); at !== -1 && at < rowEnd; at = body.indexOf('\n', at + 1)) line += 1;
     rowStart = rowEnd;
-    progress.report((0.95 * rowEnd) / Math.max(length, 1));
+    if ((rowLine & 0xfff) === 0) progress.report((0.95 * rowEnd) / Math.max(length, 1));
 
     if (fields.length === 0) return;
     if (quoteProblem) {
@@ -753,7 +764,8 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
       rejections.add(rowLine, 'quote', `a quoted field is not closed${extent}`);
       return;
     }
-    if (!fields.some(isNumberLike)) {
+    // Most rows start with a number; the pattern test is for the rest.
+    if (readNumberField(fields[0]!, true) === undefined && !fields.some(isNumberLike)) {
       // A comment, a repeated header or a text line between parts of a scan.
       skippedCount += 1;
       if (skipped.length < LISTED_SKIPS) skipped.push(rowLine);
