@@ -303,7 +303,7 @@ function parseRows(
 /**
  * The rows of the body. A body without a quote character, nearly every receiver export, is split
  * here, line by line into one reused array: papaparse's per-row objects and arrays were most of the
- * time and the garbage of a million-row file (DEVELOPERS.md, decision 22). Anything quoted goes to
+ * time and the garbage of a million-row file (DEVELOPERS.md, decision 36). Anything quoted goes to
  * papaparse, which knows quoted separators and fields over several lines; both give the same fields
  * (test/io/scan-csv-large.test.ts checks it).
  */

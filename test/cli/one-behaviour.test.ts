@@ -28,6 +28,11 @@ function outputOf(argv: readonly string[]): string | undefined {
   return undefined;
 }
 
+/** Other paths a command writes to: the report's CSV prefix. */
+function otherOutputsOf(argv: readonly string[]): string[] {
+  return argv.flatMap((arg, i) => (arg === '--csv' && argv[i + 1] !== undefined ? [argv[i + 1]!] : []));
+}
+
 describe('chokepoint help lists every exit code', () => {
   it('0, 1, 2 and 3, each with its meaning, as docs/cli.md does', async () => {
     const help = (await runInMemory(['help'], {})).stdout;
@@ -54,6 +59,7 @@ describe('examples that write files write them under out/, which git ignores', (
   it.each(writers.map((argv) => [argv.join(' '), argv]))('%s', async (_text, argv) => {
     const target = outputOf(argv)!;
     expect(target.startsWith('out/')).toBe(true);
+    for (const other of otherOutputsOf(argv)) expect(other.startsWith('out/')).toBe(true);
     // And the example runs: every file it reads is in the repository.
     const files: Record<string, string> = {};
     for (const arg of argv) if (/^fixtures\//u.test(arg)) files[arg] = readFileSync(new URL(`../../${arg}`, import.meta.url), 'utf8');

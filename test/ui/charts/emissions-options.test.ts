@@ -175,7 +175,8 @@ describe('buildEmissionsPlot', () => {
 
   it('thins again for the zoomed window once uPlot has finished, and back out on a zoom out', () => {
     const dense = syntheticScan({ points: 100_000 });
-    const denseModel = emissionsChartModel(analyse(document, scanNoise(dense)), context);
+    const denseAnalysis = analyse(document, scanNoise(dense));
+    const denseModel = emissionsChartModel(denseAnalysis, context);
     const tasks: (() => void)[] = [];
     const { options } = buildEmissionsPlot(denseModel, { width: 800, height: 480 }, (task) => tasks.push(task));
     const calls: { data?: uPlot.AlignedData; scale?: { min: number; max: number } }[] = [];
@@ -202,7 +203,11 @@ describe('buildEmissionsPlot', () => {
     const x = calls[0]?.data?.[0] as number[];
     expect(x[0]).toBe(dense.frequencyHz[0]);
     expect(x[x.length - 1]).toBe(dense.frequencyHz[dense.frequencyHz.length - 1]);
-    expect(x.filter((f) => f >= 1e6 && f <= 2e6).length).toBeGreaterThan(500);
+    // The analysis judges the scan at the receiver's resolution (2.25 kHz bins here): the zoomed window
+    // shows every point it judged there, far more than the thinned whole-span view holds.
+    const judgedInWindow = denseAnalysis.frequencyHz.filter((f) => f >= 1e6 && f <= 2e6).length;
+    expect(judgedInWindow).toBeGreaterThan(400);
+    expect(x.filter((f) => f >= 1e6 && f <= 2e6).length).toBe(judgedInWindow);
     expect(calls[1]?.scale).toEqual({ min: 1e6, max: 2e6 });
 
     // The same window again (uPlot reporting the scale it was just given) does nothing.
