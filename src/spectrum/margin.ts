@@ -138,7 +138,7 @@ export function compareToMasks(series: readonly LevelSeries[], masks: readonly L
       }
       const conservative = s.detector !== mask.detector;
       if (conservative) {
-        notes.push(`${mask.name} (${mask.detector}) judged against the ${s.detector} trace of ${s.label}: conservative, a ${s.detector} reading is never below a ${mask.detector} one`);
+        notes.push(`${mask.name} (${mask.detector}) judged against the ${s.detector} trace of ${s.label}: conservative, a ${s.detector} reading is never below ${mask.detector === 'average' ? 'an' : 'a'} ${mask.detector} one`);
       }
       comparisons.push({
         series: s.label,
