@@ -29,6 +29,8 @@ const scanSchema = z
     /** What the importer left out and noted: carried along for the report, not used in the analysis. */
     rejected: z.array(z.strictObject({ line: z.number().int().nonnegative(), reason: z.string() })).default([]),
     notes: z.array(z.string()).default([]),
+    /** The reader's warnings ("check the frequency unit …"): hints beside a verdict that is not a pass. */
+    warnings: z.array(z.string().max(2000)).max(100).optional(),
   })
   .superRefine((scan, ctx) => {
     const f = scan.frequencyHz;

@@ -3,14 +3,15 @@ import { z } from 'zod';
 import { FREQUENCY_UNITS } from '../src/io/frequency-unit.ts';
 import type { TableDelimiter } from '../src/io/impedance-table-csv.ts';
 import { readScanTextWithProgress, type ScanReadError } from '../src/io/scan-csv.ts';
+import { decodeText } from '../src/io/text-bytes.ts';
 import { DETECTORS } from '../src/model/emissions-schema.ts';
 import { formatIssue, toValidationIssue } from '../src/model/index.ts';
 import { LEVEL_UNIT_NAMES } from '../src/spectrum/level-units.ts';
 import { SCAN_TAGS, type Scan } from '../src/spectrum/spectrum-types.ts';
 
 /**
- * The object the scan-import worker exposes: a scan file's text in, a Scan (or the reasons there is
- * none) out. It holds no DOM and no state, so tests call it directly or over a MessageChannel.
+ * The object the scan-import worker exposes: a scan file's bytes (or text) in, a Scan (or the
+ * reasons there is none) out. Bytes are decoded here by the one UTF-8 reader the command line uses too. It holds no DOM and no state, so tests call it directly or over a MessageChannel.
  *
  * It never sees the design being edited: an import returns a new Scan or an error and cannot change
  * anything else, so a failed import leaves the current design as it was. Bad input comes back as
@@ -19,21 +20,24 @@ import { SCAN_TAGS, type Scan } from '../src/spectrum/spectrum-types.ts';
 
 const DELIMITERS = [',', ';', '\t', 'whitespace'] as const satisfies readonly TableDelimiter[];
 
-export const scanImportRequestSchema = z.strictObject({
-  /** The file's text (the page reads the file; a worker message carries the string). */
-  text: z.string(),
-  options: z
-    .strictObject({
-      name: z.string().min(1).max(200).optional(),
-      tag: z.enum(SCAN_TAGS).optional(),
-      frequencyUnit: z.enum(FREQUENCY_UNITS).optional(),
-      levelUnit: z.enum(LEVEL_UNIT_NAMES).optional(),
-      transferImpedanceOhm: z.number().positive('a transfer impedance is a positive number of ohms').optional(),
-      detectors: z.array(z.enum(DETECTORS)).min(1).max(DETECTORS.length).optional(),
-      delimiter: z.enum(DELIMITERS).optional(),
-    })
-    .optional(),
-});
+export const scanImportRequestSchema = z
+  .strictObject({
+    /** The file's bytes as the page read them (decoded here as UTF-8, or refused), or text already decoded (the demo scan). */
+    bytes: z.custom<Uint8Array>((value) => value instanceof Uint8Array, { message: 'expected a Uint8Array' }).optional(),
+    text: z.string().optional(),
+    options: z
+      .strictObject({
+        name: z.string().min(1).max(200).optional(),
+        tag: z.enum(SCAN_TAGS).optional(),
+        frequencyUnit: z.enum(FREQUENCY_UNITS).optional(),
+        levelUnit: z.enum(LEVEL_UNIT_NAMES).optional(),
+        transferImpedanceOhm: z.number().positive('a transfer impedance is a positive number of ohms').optional(),
+        detectors: z.array(z.enum(DETECTORS)).min(1).max(DETECTORS.length).optional(),
+        delimiter: z.enum(DELIMITERS).optional(),
+      })
+      .optional(),
+  })
+  .refine((request) => (request.bytes === undefined) !== (request.text === undefined), { message: 'give the file as bytes or as text, not both' });
 
 export type ScanImportRequest = z.input<typeof scanImportRequestSchema>;
 export type ScanImportOptions = NonNullable<ScanImportRequest['options']>;
@@ -68,7 +72,13 @@ export const scanImportApi = {
         const detail = parsed.error.issues.map((issue) => formatIssue(toValidationIssue(issue))).join('; ');
         return failure(`invalid scan import request: ${detail}`);
       }
-      const { text, options } = parsed.data;
+      const { bytes, options } = parsed.data;
+      let text = parsed.data.text ?? '';
+      if (bytes !== undefined) {
+        const decoded = decodeText(bytes);
+        if (!decoded.ok) return failure(decoded.error.message);
+        text = decoded.text;
+      }
       let read: ReturnType<typeof readScanTextWithProgress>;
       try {
         read = readScanTextWithProgress(text, options ?? {}, onProgress && fireAndForget(onProgress));

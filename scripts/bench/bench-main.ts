@@ -2,13 +2,14 @@ import type { BenchSection, Figure } from './bench-section.ts';
 import { drawingReportSection } from './sections/drawing-report.ts';
 import { kernelSection } from './sections/kernel.ts';
 import { plannerPageSection } from './sections/planner-page.ts';
+import { scanImportSection } from './sections/scan-import.ts';
 
 /**
  * `npm run bench [-- --json] [-- --only id,id]`: every speed and memory figure the project tracks,
  * one section per area (scripts/bench/sections/). A table for people, or with --json one flat JSON
  * object for comparing two versions key by key (DEVELOPERS.md, "Reading the benchmark").
  */
-const SECTIONS: readonly BenchSection[] = [kernelSection, drawingReportSection, plannerPageSection];
+const SECTIONS: readonly BenchSection[] = [kernelSection, drawingReportSection, scanImportSection, plannerPageSection];
 
 const args = process.argv.slice(2);
 const asJson = args.includes('--json');

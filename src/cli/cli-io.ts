@@ -4,12 +4,20 @@
  */
 export interface CliIo {
   /**
-   * Read a UTF-8 text file. When it cannot, reject with an Error that carries a Node-style `code`
-   * ("ENOENT", "EISDIR", "EACCES", …): the command line turns the code into words.
+   * Read a file's bytes (src/io/text-bytes.ts makes them text, or says why not). When it cannot,
+   * reject with an Error that carries a Node-style `code` ("ENOENT", "EISDIR", "EACCES", …): the
+   * command line turns the code into words. With `maxBytes`, a larger file is not read: reject with
+   * code "EFBIG" and its `size`.
    */
-  readTextFile(path: string): Promise<string>;
-  /** Write (create or replace) a UTF-8 text file; reject like readTextFile. */
+  readFile(path: string, maxBytes?: number): Promise<Uint8Array>;
+  /** Write (create or replace) a UTF-8 text file; reject like readFile. */
   writeTextFile(path: string, text: string): Promise<void>;
+  /**
+   * Write text made piece by piece, to a file (created or replaced) or, with no path, to standard
+   * output, taking the next piece only when the last has gone (so a million-row output never sits in
+   * memory whole); reject like writeTextFile. Optional: without it the pieces are joined and written.
+   */
+  writeChunks?(path: string | undefined, chunks: Iterable<string>): Promise<void>;
   /** Write to standard output as is (no newline added). */
   stdout(text: string): void;
   /** Write to standard error as is (no newline added). */

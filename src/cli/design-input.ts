@@ -1,21 +1,47 @@
 import { parseJsonText } from '../io/json-text.ts';
+import { decodeText } from '../io/text-bytes.ts';
 import { type Design, formatIssue, readDesign, type ValidationIssue } from '../model/index.ts';
 import { describeFileError } from './cli-io.ts';
 import type { CommandContext } from './command.ts';
 import { CliError } from './exit-codes.ts';
 
+/** The largest file read, and what to say of a larger one. */
+export interface SizeLimit {
+  readonly maxBytes: number;
+  readonly tooLarge: (bytes: number) => string;
+}
+
+/**
+ * Designs, masks and measurements: far above any real one (the largest design a plan allows, with
+ * measured tables of 20 000 points, is a few MiB), low enough that a wrong file is refused unread.
+ */
+export const DEFAULT_LIMIT: SizeLimit = {
+  maxBytes: 32 * 1024 * 1024,
+  tooLarge: (bytes) => `the file is ${(bytes / 2 ** 20).toFixed(0)} MiB; files of this kind are read up to 32 MiB (is it the right file?)`,
+};
+
 /** The most problems listed for one file; the rest are counted. */
 export const MAX_LISTED_PROBLEMS = 30;
 
-/** Read a text file named on the command line, or fail with a message that names it. */
-export async function readInputFile(context: CommandContext, path: string, what: string): Promise<string> {
+/**
+ * Read a text file named on the command line, or fail with a message that names it: every file the
+ * command line reads comes through here, as bytes decoded by the one UTF-8 reader (src/io/text-bytes.ts).
+ */
+export async function readInputFile(context: CommandContext, path: string, what: string, limit: SizeLimit = DEFAULT_LIMIT): Promise<string> {
   if (path === '-') throw new CliError(`reading ${what} from standard input is not supported: give a file name`);
   if (path === '') throw new CliError(`the file name of ${what} is empty`);
+  let bytes: Uint8Array;
   try {
-    return await context.io.readTextFile(path);
+    bytes = await context.io.readFile(path, limit.maxBytes);
   } catch (error) {
+    const size = (error as { code?: unknown; size?: unknown } | null)?.code === 'EFBIG' ? (error as { size?: unknown }).size : undefined;
+    if (typeof size === 'number') throw new CliError(`cannot read ${what} ${path}: ${limit.tooLarge(size)}`);
     throw new CliError(`cannot read ${what} ${path}: ${describeFileError(error)}`);
   }
+  if (bytes.length > limit.maxBytes) throw new CliError(`cannot read ${what} ${path}: ${limit.tooLarge(bytes.length)}`);
+  const decoded = decodeText(bytes);
+  if (!decoded.ok) throw new CliError(`cannot read ${what} ${path}: ${decoded.error.message}`);
+  return decoded.text;
 }
 
 /**

@@ -1,5 +1,14 @@
 import type { OptionSpec } from './args.ts';
 import { COMMON_OPTIONS, type Command } from './command.ts';
+import { ExitCode } from './exit-codes.ts';
+
+/** Every exit code with its meaning, for the general help (docs/cli.md, "Exit codes", says the same). */
+export const EXIT_CODE_HELP: readonly (readonly [ExitCode, string])[] = [
+  [ExitCode.Ok, 'done; for check: every band covered by judged points and keeping the target margin'],
+  [ExitCode.NotPassed, 'check ran, and a band is below the target margin or not covered by judged points'],
+  [ExitCode.BadInput, 'bad input: usage, a file that cannot be read, is not UTF-8, is invalid or cannot be written; or check judged nothing at all (no result)'],
+  [ExitCode.Internal, 'internal error: a defect, please report it with the command and the input'],
+];
 
 const PROGRAM_SUMMARY =
   'plans a two-line mains or DC input filter for conducted-emission tests: sweeps the filter with its parasitics, separates common and differential mode, and predicts the level at the LISN.';
@@ -56,7 +65,8 @@ export function generalHelp(program: string, version: string, commands: readonly
       ['    --version', 'print the version'],
     ]),
     '',
-    ...wrap('Exit codes: 0 done; 2 bad input (usage, a file that cannot be read, is invalid or cannot be written); 3 internal error.'),
+    'Exit codes:',
+    ...table(EXIT_CODE_HELP.map(([code, text]): [string, string] => [String(code), text])),
     `Run "${program} help <command>" for a command's arguments and options.`,
     '',
   ].join('\n');

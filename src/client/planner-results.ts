@@ -198,7 +198,14 @@ export class PlannerResults {
       if (!this.storedScans.has(noise.scanId)) {
         const scan = this.scans(noise.scanId);
         if (!scan) return { reason: 'The chosen scan is not loaded.' };
-        const message = { name: scan.name, tag: scan.tag, frequencyHz: scan.frequencyHz, traces: scan.traces.map((trace) => ({ ...trace })), notes: [...scan.notes] };
+        const message = {
+          name: scan.name,
+          tag: scan.tag,
+          frequencyHz: scan.frequencyHz,
+          traces: scan.traces.map((trace) => ({ ...trace })),
+          notes: [...scan.notes],
+          ...(scan.warnings && scan.warnings.length > 0 ? { warnings: [...scan.warnings] } : {}),
+        };
         const reply = (await this.remote.storeScan({ scanId: noise.scanId, scan: message })) as { ok?: unknown; message?: unknown };
         if (reply.ok !== true) return { reason: `The worker refused the scan: ${typeof reply.message === 'string' ? reply.message : 'no reason given'}` };
         this.storedScans.add(noise.scanId);

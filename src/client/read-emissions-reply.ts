@@ -3,6 +3,7 @@ import { ATTRIBUTIONS, DETECTORS } from '../model/emissions-schema.ts';
 import { formatIssue, toValidationIssue, type ValidationCode, type ValidationIssue } from '../model/index.ts';
 import type { EmissionsAnalysis } from '../spectrum/emissions-analysis.ts';
 import { SCAN_TAGS } from '../spectrum/spectrum-types.ts';
+import { ITEM_STATUSES, VERDICT_STATUSES } from '../spectrum/verdict.ts';
 import type { EmissionsOutcome } from './emissions-outcome.ts';
 
 /**
@@ -52,6 +53,20 @@ const pointSchema = z.object({
   conservative: z.boolean(),
 });
 
+const bandSchema = z.object({
+  name: z.string(),
+  startHz: z.number(),
+  stopHz: z.number(),
+  worst: pointSchema.optional(),
+  pass: z.boolean().optional(),
+  status: z.enum(ITEM_STATUSES),
+  judgedPoints: z.number().int().nonnegative(),
+  coveredPoints: z.number().int().nonnegative(),
+  coveredFromHz: z.number().optional(),
+  coveredToHz: z.number().optional(),
+  reason: z.string(),
+});
+
 const reportSchema = z.object({
   targetMarginDb: z.number(),
   comparisons: z.array(
@@ -68,9 +83,10 @@ const reportSchema = z.object({
     }),
   ),
   worst: pointSchema.optional(),
-  bands: z.array(z.object({ name: z.string(), startHz: z.number(), stopHz: z.number(), worst: pointSchema.optional(), pass: z.boolean().optional() })),
+  bands: z.array(bandSchema),
   worstPeaks: z.array(pointSchema),
   failingRanges: z.array(z.object({ startHz: z.number(), stopHz: z.number(), worst: pointSchema })),
+  verdict: z.object({ status: z.enum(VERDICT_STATUSES), items: z.array(bandSchema), judgedPoints: z.number().int().nonnegative(), reasons: z.array(z.string()) }),
   pass: z.boolean(),
   notes: z.array(z.string()),
 });

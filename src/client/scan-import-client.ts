@@ -5,10 +5,10 @@ import { SCAN_TAGS } from '../spectrum/spectrum-types.ts';
 import type { ScanImportApi, ScanImportFailure, ScanImportOptions, ScanImportReply, ScanImportRequest } from '../../workers/scan-import-api.ts';
 
 /**
- * The main-thread side of the scan-import worker: send a file's text, get a Scan or the reasons
- * there is none, with progress while a large file is read.
+ * The main-thread side of the scan-import worker: send a file's bytes (or text), get a Scan or the
+ * reasons there is none, with progress while a large file is read.
  *
- * An import cannot disturb the design being edited: the client sends only the text and the reading
+ * An import cannot disturb the design being edited: the client sends only the file and the reading
  * options, and what comes back is a new Scan or an error. Neither carries nor changes a design, so a
  * failed import leaves the current design exactly as it was; the caller decides what to do with a
  * scan that did read.
@@ -30,11 +30,12 @@ export class ScanImportClient {
   ) {}
 
   /**
-   * Read a scan in the worker. `onProgress` is told rising fractions of the work done and, when the
+   * Read a scan in the worker: a file's bytes (moved to the worker, not copied: the caller gives them
+   * up) or text already decoded. `onProgress` is told rising fractions of the work done and, when the
    * import succeeds, 1 before the promise resolves; nothing after. It never rejects: a worker that
    * cannot answer or sends a malformed reply gives `{ ok: false }` as well.
    */
-  importScan(text: string, options?: ScanImportOptions, onProgress?: (fractionDone: number) => void): Promise<ScanImportReply> {
+  importScan(content: string | Uint8Array, options?: ScanImportOptions, onProgress?: (fractionDone: number) => void): Promise<ScanImportReply> {
     if (this.closed) return Promise.resolve(failure('the scan import client is closed'));
     return new Promise<ScanImportReply>((resolve) => {
       let settled = false;
@@ -56,7 +57,9 @@ export class ScanImportClient {
         resolve(reply);
       };
       this.pending.add(finish);
-      const request: ScanImportRequest = options ? { text, options } : { text };
+      const file = typeof content === 'string' ? { text: content } : { bytes: content };
+      const request: ScanImportRequest = options ? { ...file, options } : file;
+      if (typeof content !== 'string') Comlink.transfer(request, [content.buffer]);
       // Progress messages travel on the proxy's own channel, so one may arrive after the reply:
       // `tell` drops it then, and `finish` has already said 1.
       this.remote.importScan(request, onProgress ? Comlink.proxy(tell) : undefined).then(
@@ -123,6 +126,7 @@ const scanSchema = z
     traces: z.array(z.object({ detector: z.enum(DETECTORS), levelDbuV: float64 })).min(1),
     rejected: z.array(rejectedSchema),
     notes: z.array(z.string()),
+    warnings: z.array(z.string()).optional(),
   })
   .superRefine((scan, ctx) => {
     const n = scan.frequencyHz.length;

@@ -50,6 +50,9 @@ export type { Complex } from './complex.ts';
 export {
   sweepToCsv,
   sweepToJson,
+  sweepCsvChunks,
+  sweepJsonChunks,
+  ROWS_PER_CHUNK,
   exportColumns,
   pointOriginName,
   pointFlagNames,

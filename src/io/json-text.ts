@@ -53,11 +53,18 @@ class JsonScanError extends Error {
   }
 }
 
-const MAX_DEPTH = 10_000;
+/** What the scanner is inside of: the open containers, innermost last. */
+const OBJECT = 0;
+const ARRAY = 1;
 
+/**
+ * Follows the JSON grammar without recursion: the open objects and arrays are a stack of its own,
+ * so text nested a million levels deep is located like any other (a recursive scanner ran out of
+ * call stack near 3,500 levels, long before any limit of its own).
+ */
 class Scanner {
   position = 0;
-  private depth = 0;
+  private readonly open: number[] = [];
   constructor(private readonly text: string) {}
 
   fail(reason: string, at = this.position): never {
@@ -84,90 +91,99 @@ class Scanner {
     }
   }
 
+  /** One whole value, with everything nested in it. */
   value(): void {
+    const depth = this.open.length;
+    for (;;) {
+      // Here a value starts.
+      if (this.startValue()) continue;
+      // A value ended: close what it ends, until a container asks for its next member.
+      for (;;) {
+        if (this.open.length === depth) return;
+        this.whitespace();
+        const inObject = this.open[this.open.length - 1] === OBJECT;
+        const next = this.peek();
+        if (next === ',') {
+          this.position += 1;
+          this.whitespace();
+          if (inObject) this.propertyName();
+          else if (this.peek() === ']') this.fail('trailing comma before "]"');
+          break;
+        }
+        if (next === (inObject ? '}' : ']')) {
+          this.position += 1;
+          this.open.pop();
+          continue;
+        }
+        this.fail(
+          inObject
+            ? `expected "," or "}" after a property value, found ${this.describe(next)}`
+            : `expected "," or "]" after a list item, found ${this.describe(next)}`,
+        );
+      }
+      this.whitespace();
+    }
+  }
+
+  /**
+   * Read the start of a value: a whole scalar (false: the value ended), or the opening of a
+   * non-empty container up to where its first member's value starts (true). An empty container is
+   * a whole value.
+   */
+  private startValue(): boolean {
     const c = this.peek();
-    if (c === '{') return this.object();
-    if (c === '[') return this.array();
-    if (c === '"') return this.string();
-    if (c === '-' || (c !== undefined && c >= '0' && c <= '9')) return this.number();
+    if (c === '{') {
+      this.position += 1;
+      this.whitespace();
+      if (this.peek() === '}') {
+        this.position += 1;
+        return false;
+      }
+      this.open.push(OBJECT);
+      this.propertyName();
+      this.whitespace();
+      return true;
+    }
+    if (c === '[') {
+      this.position += 1;
+      this.whitespace();
+      if (this.peek() === ']') {
+        this.position += 1;
+        return false;
+      }
+      this.open.push(ARRAY);
+      return true;
+    }
+    if (c === '"') {
+      this.string();
+      return false;
+    }
+    if (c === '-' || (c !== undefined && c >= '0' && c <= '9')) {
+      this.number();
+      return false;
+    }
     for (const word of ['true', 'false', 'null']) {
       if (this.text.startsWith(word, this.position)) {
         this.position += word.length;
-        return;
+        return false;
       }
     }
-    if (c === '/' ) this.fail('comments are not allowed in JSON');
+    if (c === '/') this.fail('comments are not allowed in JSON');
     this.fail(`expected a value, found ${this.describe(c)}`);
   }
 
-  private enter(): void {
-    this.depth += 1;
-    if (this.depth > MAX_DEPTH) this.fail('nested too deeply');
-  }
-
-  private object(): void {
-    this.enter();
-    this.position += 1;
+  /** A property name and its colon, the value after it left to the caller. */
+  private propertyName(): void {
     this.whitespace();
-    if (this.peek() === '}') {
-      this.position += 1;
-      this.depth -= 1;
-      return;
+    const c = this.peek();
+    if (c !== '"') {
+      if (c === '}') this.fail('trailing comma before "}"');
+      this.fail(`expected a property name in double quotes, found ${this.describe(c)}`);
     }
-    for (;;) {
-      this.whitespace();
-      const c = this.peek();
-      if (c !== '"') {
-        if (c === '}') this.fail('trailing comma before "}"');
-        this.fail(`expected a property name in double quotes, found ${this.describe(c)}`);
-      }
-      this.string();
-      this.whitespace();
-      if (this.peek() !== ':') this.fail(`expected ":" after the property name, found ${this.describe(this.peek())}`);
-      this.position += 1;
-      this.whitespace();
-      this.value();
-      this.whitespace();
-      const next = this.peek();
-      if (next === ',') {
-        this.position += 1;
-        continue;
-      }
-      if (next === '}') {
-        this.position += 1;
-        this.depth -= 1;
-        return;
-      }
-      this.fail(`expected "," or "}" after a property value, found ${this.describe(next)}`);
-    }
-  }
-
-  private array(): void {
-    this.enter();
-    this.position += 1;
+    this.string();
     this.whitespace();
-    if (this.peek() === ']') {
-      this.position += 1;
-      this.depth -= 1;
-      return;
-    }
-    for (;;) {
-      this.whitespace();
-      if (this.peek() === ']') this.fail('trailing comma before "]"');
-      this.value();
-      this.whitespace();
-      const next = this.peek();
-      if (next === ',') {
-        this.position += 1;
-        continue;
-      }
-      if (next === ']') {
-        this.position += 1;
-        this.depth -= 1;
-        return;
-      }
-      this.fail(`expected "," or "]" after a list item, found ${this.describe(next)}`);
-    }
+    if (this.peek() !== ':') this.fail(`expected ":" after the property name, found ${this.describe(this.peek())}`);
+    this.position += 1;
   }
 
   private string(): void {

@@ -11,10 +11,11 @@ import {
   ohmToDbOhm,
   voltsToDbuV,
 } from '../spectrum/level-units.ts';
-import type { RejectedLine, Scan, ScanTag, ScanTrace } from '../spectrum/spectrum-types.ts';
+import { DEFAULT_SCAN_TAG, type RejectedLine, type Scan, type ScanTag, type ScanTrace } from '../spectrum/spectrum-types.ts';
 import { parseDecimal, quoteField } from './decimal-number.ts';
 import { type FrequencyUnit, frequencyUnitFactor, parseFrequencyUnit } from './frequency-unit.ts';
 import type { TableDelimiter } from './impedance-table-csv.ts';
+import { MAX_SCAN_FILE_BYTES, MAX_SCAN_LINES, scanFileTooLarge, tooManyLines } from './scan-limits.ts';
 import { describeLines, stripByteOrderMark } from './text-issues.ts';
 
 /**
@@ -72,6 +73,13 @@ export type ScanReadProgress = (fractionDone: number) => void;
  * the rest are counted in a note instead of building a million messages.
  */
 export const MAX_LISTED_REJECTIONS = 10_000;
+/** Lines of the text; a line end after the last line does not start another. */
+function countLines(text: string): number {
+  let lines = text.length === 0 || text.endsWith('\n') ? 0 : 1;
+  for (let at = text.indexOf('\n'); at !== -1; at = text.indexOf('\n', at + 1)) lines += 1;
+  return lines;
+}
+
 /** Lines looked at to find the separator, the header and the first data line. */
 const HEAD_MAX_LINES = 20_000;
 /** Data-looking lines that are enough to judge the separator and the number of columns. */
@@ -81,7 +89,6 @@ const LISTED_SKIPS = 50;
 
 const DELIMITERS: readonly TableDelimiter[] = [',', ';', '\t', 'whitespace'];
 const DEFAULT_NAME = 'scan';
-const DEFAULT_TAG: ScanTag = 'total';
 
 /** Read a scan from text. See readScanTextWithProgress for the same with progress reports. */
 export function readScanText(text: string, options: ScanCsvOptions = {}): ScanReadResult {
@@ -98,7 +105,10 @@ export function readScanTextWithProgress(text: string, options: ScanCsvOptions, 
   const problem = checkOptions(options);
   if (problem) return fail(problem, [], []);
 
+  if (text.length > MAX_SCAN_FILE_BYTES) return fail(scanFileTooLarge(text.length), [], []);
   const normal = normaliseNewlines(stripByteOrderMark(text));
+  const lineCount = countLines(normal);
+  if (lineCount > MAX_SCAN_LINES) return fail(tooManyLines(lineCount), [], []);
   const head = readHead(normal, options.delimiter);
   if (head.kind === 'problem') return fail(head.message, [], []);
   const { firstData } = head;
@@ -288,6 +298,54 @@ function parseRows(
       onRow(cleanFields(result.data, delimiter), result.meta.cursor, quoteProblem);
     },
   });
+}
+
+/**
+ * The rows of the body. A body without a quote character, nearly every receiver export, is split
+ * here, line by line into one reused array: papaparse's per-row objects and arrays were most of the
+ * time and the garbage of a million-row file (DEVELOPERS.md, decision 36). Anything quoted goes to
+ * papaparse, which knows quoted separators and fields over several lines; both give the same fields
+ * (test/io/scan-csv-large.test.ts checks it).
+ */
+function forEachBodyRow(
+  body: string,
+  delimiter: TableDelimiter,
+  onRow: (fields: string[], rowEnd: number, quoteProblem: boolean) => void,
+): void {
+  if (body.includes('"')) {
+    parseRows(body, delimiter, onRow);
+    return;
+  }
+  const fields: string[] = [];
+  const separator = delimiter === 'whitespace' ? ' ' : delimiter;
+  const tabs = delimiter === 'whitespace' && body.includes('\t');
+  const length = body.length;
+  for (let start = 0; start < length || start === 0; ) {
+    const newline = body.indexOf('\n', start);
+    const end = newline === -1 ? length : newline;
+    fields.length = 0;
+    if (tabs) {
+      const line = body.slice(start, end).replace(/\t/gu, ' ');
+      for (let from = 0; ; ) {
+        const at = line.indexOf(separator, from);
+        fields.push(at === -1 ? line.slice(from) : line.slice(from, at));
+        if (at === -1) break;
+        from = at + 1;
+      }
+    } else {
+      // Fields cut straight from the body: no string per line.
+      for (let from = start; ; ) {
+        const found = body.indexOf(separator, from);
+        const at = found === -1 || found > end ? end : found;
+        fields.push(body.slice(from, at));
+        if (at === end) break;
+        from = at + 1;
+      }
+    }
+    onRow(cleanFields(fields, delimiter), newline === -1 ? length : newline + 1, false);
+    if (newline === -1) break;
+    start = newline + 1;
+  }
 }
 
 /**
@@ -674,8 +732,11 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
 
   let capacity = 1;
   for (let at = body.indexOf('\n'); at !== -1; at = body.indexOf('\n', at + 1)) capacity += 1;
-  const frequencyHz = new Float64Array(capacity);
-  const levels = columns.levels.map(() => new Float64Array(capacity));
+  // The scan's own buffer from the start (axis, then each trace, `capacity` apart): the rows are
+  // ordered in place and the scan's arrays are views of it, so no column is ever copied.
+  const buffer = new ArrayBuffer(8 * capacity * (1 + columns.levels.length));
+  const frequencyHz = new Float64Array(buffer, 0, capacity);
+  const levels = columns.levels.map((_, c) => new Float64Array(buffer, 8 * capacity * (1 + c), capacity));
   const lines = new Uint32Array(capacity);
   const rejections = new Rejections();
   const skipped: number[] = [];
@@ -690,11 +751,11 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
   let line = firstData.line;
   let rowStart = 0;
 
-  parseRows(body, delimiter, (fields, rowEnd, quoteProblem) => {
+  forEachBodyRow(body, delimiter, (fields, rowEnd, quoteProblem) => {
     const rowLine = line;
     for (let at = body.indexOf('\n', rowStart); at !== -1 && at < rowEnd; at = body.indexOf('\n', at + 1)) line += 1;
     rowStart = rowEnd;
-    progress.report((0.95 * rowEnd) / Math.max(length, 1));
+    if ((rowLine & 0xfff) === 0) progress.report((0.95 * rowEnd) / Math.max(length, 1));
 
     if (fields.length === 0) return;
     if (quoteProblem) {
@@ -703,7 +764,8 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
       rejections.add(rowLine, 'quote', `a quoted field is not closed${extent}`);
       return;
     }
-    if (!fields.some(isNumberLike)) {
+    // Most rows start with a number; the pattern test is for the rest.
+    if (readNumberField(fields[0]!, true) === undefined && !fields.some(isNumberLike)) {
       // A comment, a repeated header or a text line between parts of a scan.
       skippedCount += 1;
       if (skipped.length < LISTED_SKIPS) skipped.push(rowLine);
@@ -718,7 +780,7 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
     let reasons: string[] | undefined;
     let kind = '';
     const frequencyField = fields[frequencyIndex]!;
-    const frequency = parseDecimal(frequencyField, decimalComma);
+    const frequency = readNumberField(frequencyField, decimalComma, exponent);
     let hz = Number.NaN;
     if (frequency === undefined) {
       kind = numberProblemKind(frequencyField);
@@ -727,13 +789,13 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
       kind = 'frequency not positive';
       (reasons ??= []).push(`frequency must be positive, got ${frequencyField}`);
     } else {
-      hz = exponent === 0 ? frequency : scaleDecimal(frequencyField, decimalComma, exponent);
+      hz = frequency;
       if (decimalComma && !decimalCommaSeen && frequencyField.includes(',')) decimalCommaSeen = true;
     }
     for (let c = 0; c < levelColumns.length; c += 1) {
       const column = levelColumns[c]!;
       const field = fields[column.index]!;
-      const value = parseDecimal(field, decimalComma);
+      const value = readNumberField(field, decimalComma);
       let dBuV: number;
       if (value === undefined) {
         if (kind === '') kind = numberProblemKind(field);
@@ -767,6 +829,90 @@ function readBody(text: string, head: Head, columns: Columns, progress: Progress
     notes.push(`skipped ${listed} among the data: comments or text without numbers`);
   }
   return { count, frequencyHz, levels, lines, rejections, decimalCommaSeen, notes };
+}
+
+/**
+ * parseDecimal for a field that is already trimmed, without a regular expression and, for the
+ * usual field, without Number(): a million-row scan reads millions of fields, and the pattern test
+ * and the string conversion were most of the reading time. The grammar is parseDecimal's (sign,
+ * digits, one point (or comma when allowed), exponent). A field of at most 15 significant digits
+ * with a decimal exponent of at most 22 is converted exactly as Number() would: digits ≤ 10^15 and
+ * powers of ten ≤ 10^22 are exact doubles, so one correctly rounded multiplication or division
+ * gives the correctly rounded value (Clinger's fast path); any other field goes to Number(). With
+ * `power`, the value times 10^power, rounded once from the decimal text (MHz to Hz: "0.15" is 150000).
+ * test/io/scan-csv-large.test.ts compares it with parseDecimal and Number() on random fields.
+ */
+export function readNumberField(field: string, decimalComma: boolean, power = 0): number | undefined {
+  const n = field.length;
+  let i = 0;
+  let c = n > 0 ? field.charCodeAt(0) : 0;
+  const negative = c === 45;
+  if (c === 43 || c === 45) i += 1; // + -
+  let digits = 0;
+  let significant = 0;
+  let mantissa = 0;
+  let scale = 0;
+  let comma = -1;
+  while (i < n) {
+    c = field.charCodeAt(i);
+    if (c < 48 || c > 57) break;
+    digits += 1;
+    if (significant > 0 || c !== 48) {
+      significant += 1;
+      if (significant <= 15) mantissa = mantissa * 10 + (c - 48);
+    }
+    i += 1;
+  }
+  if (i < n && (c === 46 || (decimalComma && c === 44))) {
+    if (c === 44) comma = i;
+    i += 1;
+    while (i < n) {
+      c = field.charCodeAt(i);
+      if (c < 48 || c > 57) break;
+      digits += 1;
+      if (significant > 0 || c !== 48) {
+        significant += 1;
+        if (significant <= 15) mantissa = mantissa * 10 + (c - 48);
+      }
+      scale -= 1;
+      i += 1;
+    }
+  }
+  if (digits === 0) return undefined;
+  let exponent = 0;
+  if (i < n && (c === 101 || c === 69)) {
+    // e E, then an optional sign and at least one digit
+    i += 1;
+    c = i < n ? field.charCodeAt(i) : 0;
+    const exponentNegative = c === 45;
+    if (c === 43 || c === 45) i += 1;
+    let exponentDigits = 0;
+    while (i < n) {
+      c = field.charCodeAt(i);
+      if (c < 48 || c > 57) break;
+      if (exponent < 100_000) exponent = exponent * 10 + (c - 48);
+      exponentDigits += 1;
+      i += 1;
+    }
+    if (exponentDigits === 0) return undefined;
+    if (exponentNegative) exponent = -exponent;
+  }
+  if (i !== n) return undefined;
+  if (significant <= 15) {
+    const total = scale + exponent + power;
+    if (total >= 0 && total <= 22) return signed(mantissa * POWERS_OF_TEN[total]!, negative);
+    if (total < 0 && total >= -22) return signed(mantissa / POWERS_OF_TEN[-total]!, negative);
+    if (mantissa === 0) return negative ? -0 : 0;
+  }
+  const value = power === 0 ? Number(comma === -1 ? field : `${field.slice(0, comma)}.${field.slice(comma + 1)}`) : scaleDecimal(field, decimalComma, power);
+  return Number.isFinite(value) ? value : undefined;
+}
+
+/** 10^0 … 10^22: every one an exact double. */
+const POWERS_OF_TEN = Array.from({ length: 23 }, (_, k) => Number(`1e${k}`));
+
+function signed(value: number, negative: boolean): number {
+  return negative ? -value : value;
 }
 
 function describeColumns(columns: Columns): string {
@@ -959,29 +1105,25 @@ function packScan(
   rejected: readonly RejectedLine[],
   notes: string[],
 ): Scan {
-  // One buffer for the axis and every trace: one transfer moves the whole scan.
-  const traces = columns.levels.length;
-  const buffer = new ArrayBuffer(8 * n * (1 + traces));
-  const frequencyHz = new Float64Array(buffer, 0, n);
-  frequencyHz.set(table.frequencyHz.subarray(0, n));
-  const scanTraces: ScanTrace[] = columns.levels.map((column, c) => {
-    const levelDbuV = new Float64Array(buffer, 8 * n * (1 + c), n);
-    levelDbuV.set(table.levels[c]!.subarray(0, n));
-    return { detector: column.detector, levelDbuV };
-  });
+  // Views of the reader's one buffer (axis, then each trace): one transfer moves the whole scan.
+  const frequencyHz = table.frequencyHz.subarray(0, n);
+  const scanTraces: ScanTrace[] = columns.levels.map((column, c) => ({ detector: column.detector, levelDbuV: table.levels[c]!.subarray(0, n) }));
 
   const first = frequencyHz[0]!;
   const last = frequencyHz[n - 1]!;
   notes.push(`${n} point${n === 1 ? '' : 's'} from ${hzText(first)} to ${hzText(last)}`);
-  plausibility(frequencyHz, scanTraces, columns, notes);
-  if (options.tag === undefined) notes.push(`no tag given: read as "${DEFAULT_TAG}" (a line's level, mode unknown)`);
+  const warnings: string[] = [];
+  plausibility(frequencyHz, scanTraces, columns, warnings);
+  notes.push(...warnings);
+  if (options.tag === undefined) notes.push(`no tag given: read as "${DEFAULT_SCAN_TAG}" (a line's level, mode unknown)`);
   return {
     name: options.name ?? DEFAULT_NAME,
-    tag: options.tag ?? DEFAULT_TAG,
+    tag: options.tag ?? DEFAULT_SCAN_TAG,
     frequencyHz,
     traces: scanTraces,
     rejected,
     notes,
+    warnings,
   };
 }
 

@@ -31,7 +31,8 @@ export type ExportColumnSet = 'standard' | 'all';
 export const EXPORT_COLUMN_SETS: readonly ExportColumnSet[] = ['standard', 'all'];
 
 interface ColumnSource extends ExportColumn {
-  values(result: SweepResult): ArrayLike<number>;
+  /** The column's value at a point; nothing is allocated per column (a phase is worked out per point). */
+  reader(result: SweepResult): (i: number) => number;
 }
 
 /**
@@ -66,7 +67,10 @@ const frequencyColumn: ColumnSource = {
   unit: 'Hz',
   label: 'frequency',
   description: 'grid frequency: the log grid of the plan plus element self-resonances and located peaks and notches',
-  values: (result) => result.frequencyHz,
+  reader: (result) => {
+    const f = result.frequencyHz;
+    return (i) => f[i]!;
+  },
 };
 
 function engineColumn(id: SweepColumnId): ColumnSource {
@@ -76,7 +80,10 @@ function engineColumn(id: SweepColumnId): ColumnSource {
     unit: info.unit,
     label: info.label,
     description: info.description,
-    values: (result) => result.columns[id],
+    reader: (result) => {
+      const column = result.columns[id];
+      return (i) => column[i]!;
+    },
   };
 }
 
@@ -89,14 +96,13 @@ function phaseColumn(id: (typeof LINE_TRANSFERS)[number]): ColumnSource {
     unit: '°',
     label: `${info.label}, phase`,
     description: `phase of ${info.description.replace(/^20 log \|(.*)\|$/u, '$1')}`,
-    values: (result) => phaseOf(result.transfers[id]),
+    reader: (result) => phaseReader(result.transfers[id]),
   };
 }
 
-function phaseOf(column: ComplexColumns): Float64Array {
-  const out = new Float64Array(column.re.length);
-  for (let i = 0; i < out.length; i += 1) out[i] = (Math.atan2(column.im[i]!, column.re[i]!) * 180) / Math.PI;
-  return out;
+function phaseReader(column: ComplexColumns): (i: number) => number {
+  const { re, im } = column;
+  return (i) => (Math.atan2(im[i]!, re[i]!) * 180) / Math.PI;
 }
 
 /** The columns of the standard set: insertion losses and what each line's receiving network sees. */
@@ -163,18 +169,32 @@ export interface CsvExportOptions {
   readonly columns?: ExportColumnSet;
 }
 
+/** Rows per piece of streamed text: a few hundred kilobytes, whatever the length of the sweep. */
+export const ROWS_PER_CHUNK = 2048;
+
+/**
+ * The CSV in pieces: the header line, then ROWS_PER_CHUNK rows at a time, each piece ending in "\n".
+ * Written one piece after another, a million-point sweep never exists as one string.
+ */
+export function* sweepCsvChunks(result: SweepResult, options: CsvExportOptions = {}): Generator<string> {
+  const columns = sources(options.columns ?? 'standard');
+  const readers = columns.map((column) => column.reader(result));
+  yield `${[...columns.map((c) => c.name), ...POINT_COLUMNS.map((c) => c.name)].join(',')}\n`;
+  const n = result.frequencyHz.length;
+  for (let start = 0; start < n; start += ROWS_PER_CHUNK) {
+    const lines: string[] = [];
+    for (let i = start; i < Math.min(n, start + ROWS_PER_CHUNK); i += 1) {
+      const fields = readers.map((read) => formatNumber(read(i)));
+      fields.push(pointOriginName(result.pointOrigin[i]!), pointFlagNames(result.pointFlags[i]!).join('+'));
+      lines.push(fields.join(','));
+    }
+    yield `${lines.join('\n')}\n`;
+  }
+}
+
 /** One header line, then one line per frequency; "\n" line ends; no quoting is ever needed. */
 export function sweepToCsv(result: SweepResult, options: CsvExportOptions = {}): string {
-  const columns = sources(options.columns ?? 'standard');
-  const data = columns.map((column) => column.values(result));
-  const lines: string[] = [[...columns.map((c) => c.name), ...POINT_COLUMNS.map((c) => c.name)].join(',')];
-  const n = result.frequencyHz.length;
-  for (let i = 0; i < n; i += 1) {
-    const fields = data.map((values) => formatNumber(values[i]!));
-    fields.push(pointOriginName(result.pointOrigin[i]!), pointFlagNames(result.pointFlags[i]!).join('+'));
-    lines.push(fields.join(','));
-  }
-  return `${lines.join('\n')}\n`;
+  return [...sweepCsvChunks(result, options)].join('');
 }
 
 export const SWEEP_JSON_FORMAT = 'chokepoint-sweep';
@@ -205,8 +225,25 @@ export interface JsonExportOptions {
 
 export function sweepToJson(result: SweepResult, options: JsonExportOptions = {}): SweepJson {
   const columns = sources(options.columns ?? 'standard');
+  const n = result.frequencyHz.length;
   const data: Record<string, number[]> = {};
-  for (const column of columns) data[column.name] = Array.from(column.values(result), (v) => (Number.isFinite(v) ? v : Number.NaN));
+  for (const column of columns) {
+    const read = column.reader(result);
+    data[column.name] = Array.from({ length: n }, (_, i) => {
+      const v = read(i);
+      return Number.isFinite(v) ? v : Number.NaN;
+    });
+  }
+  return {
+    ...jsonHead(result, options),
+    data,
+    ...jsonTail(result),
+  };
+}
+
+/** The fields before `data`, in the order they are written. */
+function jsonHead(result: SweepResult, options: JsonExportOptions): Omit<SweepJson, 'data' | 'pointOrigin' | 'pointFlags' | 'warnings' | 'resonances' | 'resistiveSystems'> {
+  const columns = sources(options.columns ?? 'standard');
   return {
     format: SWEEP_JSON_FORMAT,
     version: SWEEP_JSON_VERSION,
@@ -214,11 +251,55 @@ export function sweepToJson(result: SweepResult, options: JsonExportOptions = {}
     designName: result.designName,
     pointCount: result.frequencyHz.length,
     columns: columns.map(({ name, unit, label, description }) => ({ name, unit, label, description })),
-    data,
+  };
+}
+
+/** The fields after `data`: the point lists, then the small ones. */
+function jsonTail(result: SweepResult): Pick<SweepJson, 'pointOrigin' | 'pointFlags' | 'warnings' | 'resonances' | 'resistiveSystems'> {
+  return {
     pointOrigin: Array.from(result.pointOrigin, pointOriginName),
     pointFlags: Array.from(result.pointFlags, pointFlagNames),
+    ...jsonEnd(result),
+  };
+}
+
+/** The last, small fields. */
+function jsonEnd(result: SweepResult): Pick<SweepJson, 'warnings' | 'resonances' | 'resistiveSystems'> {
+  return {
     warnings: result.warnings.map((w) => ({ ...w })),
     resonances: result.resonances.map((r) => ({ ...r })),
     resistiveSystems: result.resistiveSystems.map((s) => ({ ...s })),
   };
+}
+
+/**
+ * The JSON of sweepToJson as text in pieces, the same value once parsed (JSON.stringify of it, to
+ * the byte): the object's fields in order, each data column and the point lists ROWS_PER_CHUNK values
+ * at a time. Numbers that are not finite are written as null, as JSON.stringify writes NaN.
+ */
+export function* sweepJsonChunks(result: SweepResult, options: JsonExportOptions = {}): Generator<string> {
+  const columns = sources(options.columns ?? 'standard');
+  const n = result.frequencyHz.length;
+  const head = JSON.stringify(jsonHead(result, options));
+  yield `${head.slice(0, -1)},"data":{`;
+  for (const [c, column] of columns.entries()) {
+    const read = column.reader(result);
+    yield `${c === 0 ? '' : ','}${JSON.stringify(column.name)}:[`;
+    yield* listChunks(n, (i) => JSON.stringify(read(i)));
+    yield ']';
+  }
+  yield '},"pointOrigin":[';
+  yield* listChunks(n, (i) => JSON.stringify(pointOriginName(result.pointOrigin[i]!)));
+  yield '],"pointFlags":[';
+  yield* listChunks(n, (i) => JSON.stringify(pointFlagNames(result.pointFlags[i]!)));
+  yield `],${JSON.stringify(jsonEnd(result)).slice(1)}`;
+}
+
+/** The items of a JSON list, comma-separated, ROWS_PER_CHUNK to a piece. */
+function* listChunks(n: number, item: (i: number) => string): Generator<string> {
+  for (let start = 0; start < n; start += ROWS_PER_CHUNK) {
+    const items: string[] = [];
+    for (let i = start; i < Math.min(n, start + ROWS_PER_CHUNK); i += 1) items.push(item(i));
+    yield `${start === 0 ? '' : ','}${items.join(',')}`;
+  }
 }

@@ -56,6 +56,9 @@ export const limitMaskSchema = z
     }
   });
 
+/** The most limit masks a design holds (and `check --limit` takes). */
+export const MAX_LIMIT_MASKS = 16;
+
 export const bandSchema = z.strictObject({
   name: z.string().min(1).max(80),
   startHz: quantity('Hz'),
@@ -118,7 +121,7 @@ export const noiseEstimateSchema = z.strictObject({
 
 /** Everything but the baseline, which needs the stage schema (design-schema.ts adds it). */
 export const emissionsFields = {
-  masks: z.array(limitMaskSchema).max(16).default([]),
+  masks: z.array(limitMaskSchema).max(MAX_LIMIT_MASKS).default([]),
   /** Required distance below every limit, dB (often 6). */
   targetMarginDb: z.number().finite().min(-40).max(60).default(6),
   bands: z.array(bandSchema).min(1).max(32).default(DEFAULT_BANDS.map((band) => ({ ...band }))),

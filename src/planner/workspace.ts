@@ -38,6 +38,8 @@ export interface ScanEntry {
   readonly points: number;
   readonly detectors: readonly Detector[];
   readonly notes: readonly string[];
+  /** What the reader suspects ("check the frequency unit"): shown beside the verdict they may explain. */
+  readonly warnings: readonly string[];
   /** Data lines the reader left out, counted (their details stay with the scan). */
   readonly rejectedLines: number;
   /** The built-in invented demo scan, labelled as such wherever it is shown. */

@@ -2,7 +2,10 @@ import type { Design, LimitMask } from '../model/design.ts';
 import { DEFAULT_BANDS, type Attribution, DETECTORS } from '../model/emissions-schema.ts';
 import { type LevelSeries, marginReport, type MarginReport, requiredAttenuation } from './margin.ts';
 import { type EstimatePrediction, predictFromEstimate } from './noise-estimate.ts';
+import { maskCorners } from './limit-mask.ts';
 import { predictScan, type ScanPrediction } from './prediction.ts';
+import { BAND_B_START_HZ, BAND_B_STOP_HZ } from './receiver-view.ts';
+import { reduceScan } from './scan-reduction.ts';
 import type { Scan, ScanTag } from './spectrum-types.ts';
 
 /**
@@ -41,6 +44,8 @@ export interface EmissionsAnalysis {
   readonly notes: readonly string[];
   readonly scanPrediction?: ScanPrediction;
   readonly estimatePrediction?: EstimatePrediction;
+  /** For a scan: how many points it had and how many were analysed (scan-reduction.ts). */
+  readonly scanPoints?: { readonly read: number; readonly analysed: number };
 }
 
 const TAG_TEXT: Record<ScanTag, string> = {
@@ -62,7 +67,12 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
   if (input.kind === 'scan') {
     const attribution = options.attribution ?? emissions?.attribution ?? 'both';
     const noiseFloorDbuV = options.noiseFloorDbuV ?? emissions?.noiseFloorDbuV;
-    const prediction = predictScan(design, input.scan, { attribution, ...(noiseFloorDbuV === undefined ? {} : { noiseFloorDbuV }) });
+    // To the receiver's resolution first, split where a band or a limit line changes course: the
+    // work and memory of what follows are then bounded whatever the length of the scan.
+    const edges = [BAND_B_START_HZ, BAND_B_STOP_HZ, ...bands.flatMap((band) => [band.startHz, band.stopHz]), ...masks.flatMap((mask) => [...maskCorners(mask)])];
+    const reduction = reduceScan(input.scan, edges);
+    if (reduction.note) notes.push(reduction.note);
+    const prediction = predictScan(design, reduction.scan, { attribution, ...(noiseFloorDbuV === undefined ? {} : { noiseFloorDbuV }) });
     const label = `${TAG_TEXT[input.scan.tag]}, predicted`;
     const predicted: LevelSeries[] = prediction.traces.map((trace) => ({
       label,
@@ -93,9 +103,17 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
       requiredAttenuationCmDb: cm ? requiredAttenuation(unfiltered('unfilteredCommonModeDbuV'), masks, targetMarginDb) : undefined,
       requiredAttenuationDmDb: dm ? requiredAttenuation(unfiltered('unfilteredDifferentialModeDbuV'), masks, targetMarginDb) : undefined,
       masks,
-      report: marginReport(predicted, masks, { targetMarginDb, bands, ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}) }),
+      report: marginReport(predicted, masks, {
+        targetMarginDb,
+        bands,
+        ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}),
+        sampling: { kind: 'continuous' },
+        source: 'the scan',
+        hints: input.scan.warnings ?? [],
+      }),
       notes: [...prediction.notes, ...notes],
       scanPrediction: prediction,
+      scanPoints: { read: reduction.fromPoints, analysed: reduction.toPoints },
     };
   }
 
@@ -103,7 +121,8 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
   if (!estimate || (!estimate.commonMode && !estimate.differentialMode)) {
     throw new RangeError('the design has no noise estimate (emissions.estimate) to analyse');
   }
-  const prediction = predictFromEstimate(design, estimate, { stopHz: options.stopHz ?? design.frequencyPlan.stopHz });
+  const upToHz = options.stopHz ?? design.frequencyPlan.stopHz;
+  const prediction = predictFromEstimate(design, estimate, { stopHz: upToHz });
   // A line spectrum: every detector reads the same for each steady line (CISPR 16-1-1, CW), so
   // each line's reading stands for all three detectors and meets every mask with its own.
   const predicted: LevelSeries[] = [];
@@ -127,7 +146,13 @@ export function analyzeEmissions(design: Design, input: NoiseInput, options: Ana
     requiredAttenuationCmDb: requiredAttenuation(bare('common mode, no filter', prediction.bareCommonMode.readingDbuV), masks, targetMarginDb),
     requiredAttenuationDmDb: requiredAttenuation(bare('differential mode, no filter', prediction.bareDifferentialMode.readingDbuV), masks, targetMarginDb),
     masks,
-    report: marginReport(predicted, masks, { targetMarginDb, bands, ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}) }),
+    report: marginReport(predicted, masks, {
+      targetMarginDb,
+      bands,
+      ...(options.worstPeakCount ? { worstPeakCount: options.worstPeakCount } : {}),
+      sampling: { kind: 'lines', upToHz },
+      source: 'the estimate',
+    }),
     notes,
     estimatePrediction: prediction,
   };

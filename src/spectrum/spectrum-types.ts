@@ -14,6 +14,15 @@ export type { Attribution, Detector } from '../model/emissions-schema.ts';
 export const SCAN_TAGS = ['line1', 'line2', 'common-mode', 'differential-mode', 'total'] as const;
 export type ScanTag = (typeof SCAN_TAGS)[number];
 
+/**
+ * The tag of a scan nobody tagged, the same on every way in (the page's scan import, `chokepoint
+ * check`, the reader): "total", a line's level with the mode unknown. An engineer exporting a LISN
+ * scan knows which line it was, but the file does not say, and calling it line 1 would state a fact
+ * nobody gave. The prediction is the same for line1, line2 and total (a mode-unknown level, credited
+ * per the attribution); the tag only names the trace, and an untagged trace should claim nothing.
+ */
+export const DEFAULT_SCAN_TAG: ScanTag = 'total';
+
 /** One detector's readings over the scan's frequency axis, in dBµV. */
 export interface ScanTrace {
   readonly detector: Detector;
@@ -35,4 +44,10 @@ export interface Scan {
   readonly rejected: readonly RejectedLine[];
   /** How the file's columns were read (units, separator, assumptions), for the report. */
   readonly notes: readonly string[];
+  /**
+   * The notes that point to a likely mistake ("check the frequency unit: …"), also among `notes`:
+   * shown beside any verdict made from the scan, and given as hints when it is not a pass.
+   */
+  readonly warnings?: readonly string[];
 }
+

@@ -35,11 +35,11 @@ async function run(argv: string[], files: Record<string, string> = {}): Promise<
   let stdout = '';
   let stderr = '';
   const io: CliIo = {
-    readTextFile: async (path) => {
+    readFile: async (path) => {
       if (path.endsWith('/')) throw fsError('EISDIR', path);
       const text = all[path];
       if (text === undefined) throw fsError('ENOENT', path);
-      return text;
+      return new TextEncoder().encode(text);
     },
     writeTextFile: async (path, text) => {
       if (path.startsWith('/readonly/')) throw fsError('EACCES', path);

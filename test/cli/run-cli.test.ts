@@ -30,11 +30,11 @@ async function run(argv: string[], files: Record<string, string> = {}, commands?
   let stdout = '';
   let stderr = '';
   const io: CliIo = {
-    readTextFile: async (path) => {
+    readFile: async (path) => {
       if (path.endsWith('/')) throw fsError('EISDIR', path);
       const text = all[path];
       if (text === undefined) throw fsError('ENOENT', path);
-      return text;
+      return new TextEncoder().encode(text);
     },
     writeTextFile: async (path, text) => {
       if (path.startsWith('/readonly/')) throw fsError('EACCES', path);
@@ -285,14 +285,14 @@ describe('bad input exits 2 with a message that names the problem', () => {
   it('option values that do not read', async () => {
     expect(await refused(['sweep', DEMO, '--start', '4.7 q'])).toMatch(/--start: cannot read "4\.7 q" as a frequency: unknown unit or prefix "q"/u);
     expect(await refused(['sweep', DEMO, '--stop', '10 pF'])).toMatch(/--stop: cannot read "10 pF" as a frequency: expected Hz, got F/u);
-    expect(await refused(['sweep', DEMO, '--stop', '-5'])).toMatch(/--stop must be a positive frequency/u);
-    expect(await refused(['sweep', DEMO, '--points-per-decade', '2.5'])).toMatch(/--points-per-decade must be a whole number from 1 to 100000, got "2\.5"/u);
+    expect(await refused(['sweep', DEMO, '--stop', '-5'])).toMatch(/--stop must be a frequency from 1 mHz to 1 THz, got "-5"/u);
+    expect(await refused(['sweep', DEMO, '--points-per-decade', '2.5'])).toMatch(/--points-per-decade must be a whole number from 1 to 100000, written with digits only, got "2\.5"/u);
     expect(await refused(['sweep', DEMO, '--columns', 'some'])).toMatch(/--columns must be "standard" or "all", got "some"/u);
   });
 
   it('a plan with too many points from the command line', async () => {
     expect(await refused(['sweep', DEMO, '--start', '1', '--stop', '1e12', '--points-per-decade', '100000'])).toMatch(
-      /frequency plan from the command line is not usable:\n {2}--points-per-decade: .*at most 1000000/u,
+      /frequency plan from the command line is not usable:\n {2}the sweep from 1 Hz \(--start\) to 1 THz \(--stop\) at 100000 points per decade \(--points-per-decade\): .*at most 1000000/u,
     );
   });
 

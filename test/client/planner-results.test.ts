@@ -96,7 +96,7 @@ describe('results per variant', () => {
   it('a scan is handed to the worker once and judged by name; an unknown scan is said, not thrown', async () => {
     const { remote, calls } = countingRemote();
     const store = new PlannerStore(workspaceOf(demo, 'demo', true));
-    store.dispatch({ type: 'add-scan', entry: { id: 'demo-scan', name: scan.name, tag: scan.tag, points: scan.frequencyHz.length, detectors: ['peak', 'quasi-peak', 'average'], notes: [], rejectedLines: 0, invented: true }, use: true });
+    store.dispatch({ type: 'add-scan', entry: { id: 'demo-scan', name: scan.name, tag: scan.tag, points: scan.frequencyHz.length, detectors: ['peak', 'quasi-peak', 'average'], notes: [], warnings: [], rejectedLines: 0, invented: true }, use: true });
     const results = new PlannerResults(remote, (id) => (id === 'demo-scan' ? scan : undefined), () => undefined);
     results.update(store.workspace);
     await settled(results, ['v1']);

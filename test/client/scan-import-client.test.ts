@@ -42,6 +42,12 @@ describe('ScanImportClient with a test double', () => {
     expect(Object.keys(requests[1]!)).toEqual(['text']);
   });
 
+  it('the reader’s warnings come through the reply check (a scan in MHz read as Hz says so)', async () => {
+    const { remote } = fakeRemote((request) => Promise.resolve(scanImportApi.importScan(request)));
+    const reply = await new ScanImportClient(remote).importScan('0.15,60\n30,50\n');
+    expect(scanOf(reply).warnings).toEqual([expect.stringMatching(/^check the frequency unit: the highest frequency is 30 Hz/u)]);
+  });
+
   it('a remote that rejects gives { ok: false }, not a rejected promise', async () => {
     const client = new ScanImportClient(fakeRemote(() => Promise.reject(new Error('worker gone'))).remote);
     const reply = await client.importScan(scanText);

@@ -514,10 +514,10 @@ export const cliTarget: FuzzTarget<string[]> = {
     let code: number;
     try {
       code = await runCli(argv, {
-        readTextFile: async (path) => {
+        readFile: async (path) => {
           const text = cliFiles[path];
           if (text === undefined) throw Object.assign(new Error(`ENOENT: no such file, '${path}'`), { code: 'ENOENT' });
-          return text;
+          return new TextEncoder().encode(text);
         },
         writeTextFile: async (path) => {
           if (path.startsWith('/readonly/')) throw Object.assign(new Error(`EACCES: permission denied, '${path}'`), { code: 'EACCES' });

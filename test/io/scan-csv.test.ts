@@ -430,11 +430,13 @@ describe('reading a scan: name, tag, result shape', () => {
     expect(notes(plain)).toMatch(/no tag given: read as "total"/u);
   });
 
-  it('puts the axis and every trace in one ArrayBuffer, exactly sized', () => {
+  it('puts the axis and every trace in one ArrayBuffer, sized by the lines of the file (the reader never copies a column)', () => {
     const scan = read('Frequency [MHz],Peak,QP,AV\n0.15,70,65,55\n1,60,55,45\n');
     const buffer = scan.frequencyHz.buffer;
     for (const trace of scan.traces) expect(trace.levelDbuV.buffer).toBe(buffer);
-    expect(buffer.byteLength).toBe(8 * 2 * 4);
+    // Two data lines and the empty one after the last line end: room for three rows of four columns.
+    expect(buffer.byteLength).toBe(8 * 3 * 4);
+    expect(scan.frequencyHz.length).toBe(2);
   });
 });
 

@@ -6,7 +6,10 @@ import {
   POINT_COLUMNS,
   pointFlagNames,
   pointOriginName,
+  ROWS_PER_CHUNK,
   type SweepJson,
+  sweepCsvChunks,
+  sweepJsonChunks,
   sweepToCsv,
   sweepToJson,
 } from '../../src/io/sweep-export.ts';
@@ -130,5 +133,38 @@ describe('sweep export as JSON', () => {
     const exported = sweepToJson(result, { columns: 'all' });
     expect(Object.keys(exported.data)).toHaveLength(1 + SWEEP_COLUMNS.length + 4);
     expect(exported.data['dm_input_impedance_ohm']).toEqual(Array.from(result.columns.inputImpedanceDmOhm));
+  });
+});
+
+describe('sweep export in pieces (streamed by chokepoint sweep)', () => {
+  it('the CSV pieces join to the whole, each piece whole lines, at most ROWS_PER_CHUNK rows', () => {
+    const pieces = [...sweepCsvChunks(result, { columns: 'all' })];
+    expect(pieces.join('')).toBe(sweepToCsv(result, { columns: 'all' }));
+    expect(pieces.length).toBe(1 + Math.ceil(result.frequencyHz.length / ROWS_PER_CHUNK));
+    for (const piece of pieces) expect(piece.endsWith('\n')).toBe(true);
+    for (const piece of pieces.slice(1)) expect(piece.split('\n').length - 1).toBeLessThanOrEqual(ROWS_PER_CHUNK);
+  });
+
+  it('the JSON pieces are, to the byte, JSON.stringify of the object form', () => {
+    for (const columns of ['standard', 'all'] as const) {
+      const text = [...sweepJsonChunks(result, { columns, generator: 'chokepoint test' })].join('');
+      expect(text).toBe(JSON.stringify(sweepToJson(result, { columns, generator: 'chokepoint test' })));
+    }
+  });
+
+  it('a sweep longer than one piece: many pieces, still the same text; NaN is written as null as JSON.stringify does', () => {
+    const long = sweepDesign(
+      buildDesign({
+        elements: [element('line-to-line', capacitor(100e-9, { esl: 10e-9, esr: 0.03 })), element('series-line1', inductor(100e-6, { dcr: 0.05 }))],
+        frequencyPlan: { startHz: 9e3, stopHz: 30e6, pointsPerDecade: 2000 },
+      }),
+      { refine: false },
+    );
+    expect(long.frequencyHz.length).toBeGreaterThan(3 * ROWS_PER_CHUNK);
+    const pieces = [...sweepJsonChunks(long)];
+    expect(pieces.length).toBeGreaterThan(3 * 13);
+    expect(pieces.join('')).toBe(JSON.stringify(sweepToJson(long)));
+    const withNaN: SweepResult = { ...long, frequencyHz: Float64Array.from(long.frequencyHz, (f, i) => (i === 5 ? Number.NaN : f)) };
+    expect((JSON.parse([...sweepJsonChunks(withNaN)].join('')) as SweepJson).data['frequency_Hz']![5]).toBeNull();
   });
 });

@@ -87,7 +87,7 @@ describe('the examples in fixtures/examples/', () => {
   it('engineering-notation: every physical value is text', () => {
     const raw: unknown = JSON.parse(readFileSync(new URL('examples/engineering-notation.design.json', FIXTURES), 'utf8'));
     // Numbers that the format takes as plain JSON numbers only.
-    const plainNumbers = new Set(['version', 'pointsPerDecade', 'couplingFactor', 'frequencyHz', 'magnitudeOhm', 'phaseDeg']);
+    const plainNumbers = new Set(['version', 'pointsPerDecade', 'couplingFactor', 'frequencyHz', 'magnitudeOhm', 'phaseDeg', 'levelDbuV', 'targetMarginDb', 'noiseFloorDbuV', 'duty']);
     const numbersAt: string[] = [];
     const walk = (value: unknown, path: string, key: string): void => {
       if (typeof value === 'number' && !plainNumbers.has(key)) numbersAt.push(path);

@@ -169,7 +169,7 @@ describe('undo and redo', () => {
   it('undo keeps the loaded scans and the chosen noise (they are not edits)', () => {
     const store = storeAt({ t: 0 });
     store.dispatch({ type: 'add-stage' });
-    store.dispatch({ type: 'add-scan', entry: { id: 's1', name: 'scan.csv', tag: 'total', points: 10, detectors: ['peak'], notes: [], rejectedLines: 0, invented: false }, use: true });
+    store.dispatch({ type: 'add-scan', entry: { id: 's1', name: 'scan.csv', tag: 'total', points: 10, detectors: ['peak'], notes: [], warnings: [], rejectedLines: 0, invented: false }, use: true });
     store.undo();
     expect(store.workspace.scans).toHaveLength(1);
     expect(store.workspace.noise).toEqual({ kind: 'scan', scanId: 's1' });

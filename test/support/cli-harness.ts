@@ -6,6 +6,8 @@ export interface CliRun {
   readonly stdout: string;
   readonly stderr: string;
   readonly written: ReadonlyMap<string, string>;
+  /** How many pieces each streamed output came in ("-" for standard output). */
+  readonly pieces: ReadonlyMap<string, number>;
 }
 
 /** A repository file's text (paths relative to the repository root). */
@@ -14,21 +16,36 @@ export function repoFile(path: string): string {
 }
 
 /**
- * Run the command line in-process: `files` maps paths to contents (anything else is ENOENT),
- * writes are kept in `written`, nothing touches the disk or the real console.
+ * Run the command line in-process: `files` maps paths to contents, text (written as UTF-8) or bytes
+ * (anything else is ENOENT), writes are kept in `written`, nothing touches the disk or the real console.
  */
-export async function runInMemory(argv: string[], files: Record<string, string>): Promise<CliRun> {
+export async function runInMemory(argv: string[], files: Record<string, string | Uint8Array>): Promise<CliRun> {
   const written = new Map<string, string>();
+  const pieces = new Map<string, number>();
   let stdout = '';
   let stderr = '';
   const io: CliIo = {
-    readTextFile: async (path) => {
+    readFile: async (path, maxBytes) => {
       const text = files[path];
       if (text === undefined) throw Object.assign(new Error(`ENOENT: no such file, '${path}'`), { code: 'ENOENT' });
-      return text;
+      const bytes = typeof text === 'string' ? new TextEncoder().encode(text) : text;
+      // As node-main.ts does: a file above the limit is not read.
+      if (maxBytes !== undefined && bytes.length > maxBytes) throw Object.assign(new Error('too large'), { code: 'EFBIG', size: bytes.length });
+      return bytes;
     },
     writeTextFile: async (path, text) => {
       written.set(path, text);
+    },
+    writeChunks: async (path, chunks) => {
+      let text = '';
+      let count = 0;
+      for (const chunk of chunks) {
+        text += chunk;
+        count += 1;
+      }
+      pieces.set(path ?? '-', count);
+      if (path === undefined) stdout += text;
+      else written.set(path, text);
     },
     stdout: (text) => {
       stdout += text;
@@ -38,5 +55,5 @@ export async function runInMemory(argv: string[], files: Record<string, string>)
     },
     version: 'test',
   };
-  return { code: await runCli(argv, io), stdout, stderr, written };
+  return { code: await runCli(argv, io), stdout, stderr, written, pieces };
 }

@@ -28,7 +28,9 @@ describe('scanImportApi.importScan called directly', () => {
 
   it.each([
     ['not an object', 'hello', /^invalid scan import request: /u],
-    ['no text', { options: {} }, /text: missing/u],
+    ['no file', { options: {} }, /give the file as bytes or as text, not both/u],
+    ['both bytes and text', { text: '1,2', bytes: new Uint8Array(3) }, /give the file as bytes or as text, not both/u],
+    ['bytes that are not a Uint8Array', { bytes: [49, 44, 50] }, /bytes: expected a Uint8Array/u],
     ['text that is not a string', { text: 42 }, /text: /u],
     ['an unknown option', { text: '1,2', options: { colour: 'red' } }, /options: /u],
     ['an unknown tag', { text: '1,2', options: { tag: 'neutral' } }, /options\.tag/u],
@@ -44,6 +46,16 @@ describe('scanImportApi.importScan called directly', () => {
   it('refuses a progress callback that is not a function', () => {
     const reply = failure(scanImportApi.importScan({ text: scanText }, 'tell me' as unknown as () => void));
     expect(reply.error.message).toBe('invalid scan import request: onProgress: expected a function');
+  });
+
+  it('reads a file’s bytes as UTF-8, like the command line, and refuses what is not UTF-8 by name', () => {
+    const reply = success(scanImportApi.importScan({ bytes: new TextEncoder().encode(scanText), options: { tag: 'line1' } }));
+    expect(reply.scan.frequencyHz).toEqual(success(scanImportApi.importScan({ text: scanText })).scan.frequencyHz);
+    // Buffer's encoders write the files as a Windows editor or an old instrument would.
+    const utf16 = failure(scanImportApi.importScan({ bytes: new Uint8Array(Buffer.from(`\uFEFF${scanText}`, 'utf16le')) }));
+    expect(utf16.error.message).toBe('not UTF-8 text: the file is UTF-16 LE text (its byte-order mark says so): save it as UTF-8');
+    const latin1 = failure(scanImportApi.importScan({ bytes: new Uint8Array(Buffer.from('Frequency [MHz],Peak [dBµV]\n0.15,40\n', 'latin1')) }));
+    expect(latin1.error.message).toMatch(/^not UTF-8 text: byte 0xB5 at line 1, column 25 /u);
   });
 
   it('a file with nothing usable comes back as { ok: false } with the rejected lines', () => {

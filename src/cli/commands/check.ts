@@ -2,18 +2,21 @@ import { parseFrequencyUnit } from '../../io/frequency-unit.ts';
 import { readMaskCsv } from '../../io/mask-csv.ts';
 import { formatLineIssue } from '../../io/text-issues.ts';
 import { readScanText, type ScanCsvOptions } from '../../io/scan-csv.ts';
+import { MAX_SCAN_FILE_BYTES, scanFileTooLarge } from '../../io/scan-limits.ts';
 import type { Design, LimitMask } from '../../model/design.ts';
-import { ATTRIBUTIONS } from '../../model/emissions-schema.ts';
+import { ATTRIBUTIONS, MAX_LIMIT_MASKS } from '../../model/emissions-schema.ts';
 import { formatQuantity } from '../../model/index.ts';
 import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../../spectrum/emissions-analysis.ts';
 import { LEVEL_UNIT_NAMES, type LevelUnitName } from '../../spectrum/level-units.ts';
 import { copyPreset, findPreset, LIMIT_PRESETS } from '../../spectrum/limit-presets.ts';
-import type { MarginPoint } from '../../spectrum/margin.ts';
-import { SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import type { BandResult, MarginPoint } from '../../spectrum/margin.ts';
+import { describeShortfall, type Verdict } from '../../spectrum/verdict.ts';
+import { DEFAULT_SCAN_TAG, type Scan, SCAN_TAGS, type ScanTag } from '../../spectrum/spectrum-types.ts';
 import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { listProblems, loadDesign, readInputFile } from '../design-input.ts';
 import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
+import { readDecimalOption, readWholeOption } from '../numeric-options.ts';
 import { tell, writeOutput } from '../output.ts';
 
 const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
@@ -25,7 +28,8 @@ export const checkCommand: Command = {
   description: [
     'Predicts what the receivers would read with the design’s filter and prints the margin table: worst margin overall and per band, the worst peaks, the failing ranges, and the attenuation still missing per mode. The noise comes from a scan (--scan), scaled by the filter’s in-circuit transfer over the baseline’s (the filter fitted when the scan was taken, from the design’s emissions.baseline; none by default), or from the design’s noise estimate (--estimate).',
     'Limits come from --limit (preset ids or mask CSV files, comma-separated) or else from the design’s emissions.masks. A peak scan judged against a quasi-peak or average limit is conservative, and the table says so.',
-    'Exit code 0 when every band keeps the target margin, 1 when one does not, 2 on bad input.',
+    'A band passes only when judged points cover it: a scan point (or a harmonic of the estimate) where a limit applies, above the noise floor, with the covered points reaching both edges of the band. A band without such evidence is "not covered" and the result fails; when nothing at all was judged (a scan in MHz read as Hz, say), there is no result: the command says why and exits 2. How the scan was read goes to standard error as notes, and what looks like a mistake as warnings.',
+    'Exit code 0 when every band is covered and keeps the target margin, 1 when a band does not or is not covered, 2 on bad input or when nothing was judged.',
   ],
   arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1)' }],
   options: [
@@ -33,7 +37,7 @@ export const checkCommand: Command = {
     { name: 'estimate', description: 'use the design’s noise estimate (emissions.estimate) instead of a scan' },
     { name: 'limit', value: 'ids', description: `limit masks: preset ids or mask CSV files, comma-separated (presets: ${LIMIT_PRESETS.map((p) => p.id).join(', ')})` },
     { name: 'margin', value: 'dB', description: 'target margin below every limit (default: the design’s, else 6)' },
-    { name: 'scan-tag', value: 'tag', description: `what the scan measured: ${SCAN_TAGS.join(', ')} (default total)` },
+    { name: 'scan-tag', value: 'tag', description: `what the scan measured: ${SCAN_TAGS.join(', ')} (default ${DEFAULT_SCAN_TAG}: a line's level, mode unknown)` },
     { name: 'attribution', value: 'mode', description: `for a scan of unknown mode: ${ATTRIBUTIONS.join(', ')} (default: the design’s, else both)` },
     { name: 'noise-floor', value: 'dBµV', description: 'scan points at or below this level are left out of the required attenuation' },
     { name: 'frequency-unit', value: 'unit', description: 'the scan’s frequency unit when its header names none: Hz, kHz, MHz, GHz' },
@@ -45,7 +49,7 @@ export const checkCommand: Command = {
   ],
   examples: [
     { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --limit cispr32-class-b-qp,cispr32-class-b-av`, description: 'the invented demo against its invented scan, class B' },
-    { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --margin 3 --json -o check.json`, description: 'the design’s own limits, 3 dB target, as JSON' },
+    { command: `chokepoint check ${DEMO} --scan ${DEMO_SCAN} --margin 3 --json -o out/check.json`, description: 'the design’s own limits, 3 dB target, as JSON' },
   ],
   run: runCheck,
 };
@@ -54,9 +58,9 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
   const scanPath = args.value('scan');
   const useEstimate = args.flag('estimate');
   if ((scanPath === undefined) === !useEstimate) throw new UsageError('give either --scan <file> or --estimate', 'check');
-  const targetMarginDb = readNumber(args, 'margin', -40, 60);
-  const noiseFloorDbuV = readNumber(args, 'noise-floor', -200, 300);
-  const peaks = readNumber(args, 'peaks', 1, 1000);
+  const targetMarginDb = readDecimalOption(args, 'margin', 'check', { min: -40, max: 60, unit: DB_UNIT });
+  const noiseFloorDbuV = readDecimalOption(args, 'noise-floor', 'check', { min: -200, max: 300, unit: DB_UNIT });
+  const peaks = readWholeOption(args, 'peaks', 'check', 1, 1000);
   const attribution = readChoice(args, 'attribution', ATTRIBUTIONS);
   const scanOptions = readScanOptions(args, scanPath);
 
@@ -64,12 +68,14 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
   const masks = await readMasks(args, context, design);
   let input: NoiseInput;
   if (scanPath !== undefined) {
-    const read = readScanText(await readInputFile(context, scanPath, 'the scan'), scanOptions);
+    const read = readScanText(await readInputFile(context, scanPath, 'the scan', { maxBytes: MAX_SCAN_FILE_BYTES, tooLarge: scanFileTooLarge }), scanOptions);
     if (!read.ok) {
       throw new CliError(`${scanPath}: ${read.error.message}`, listProblems(read.error.rejected.map((r) => `line ${r.line}: ${r.reason}`)));
     }
     for (const rejected of read.scan.rejected.slice(0, 20)) tell(context, `warning: ${scanPath}, line ${rejected.line} left out: ${rejected.reason}`);
     if (read.scan.rejected.length > 20) tell(context, `warning: ${scanPath}: ${read.scan.rejected.length - 20} more lines left out`);
+    const warnings = new Set(read.scan.warnings ?? []);
+    for (const note of read.scan.notes) tell(context, `${warnings.has(note) ? 'warning' : 'note'}: ${scanPath}: ${note}`);
     input = { kind: 'scan', scan: read.scan };
   } else {
     if (!design.emissions?.estimate) throw new CliError('--estimate: the design has no emissions.estimate (docs/design-format.md)');
@@ -89,20 +95,22 @@ async function runCheck(args: ParsedArgs, context: CommandContext): Promise<numb
     if (error instanceof RangeError) throw new CliError(error.message);
     throw error;
   }
-  const text = args.flag('json') ? `${JSON.stringify(analysisToJson(design, analysis))}\n` : marginTable(design, analysis, scanPath);
+  const verdict = analysis.report.verdict;
+  if (verdict.status === 'refused') {
+    throw new CliError(`no result: ${analysis.input === 'scan' ? `the scan ${scanPath ?? ''}` : 'the noise estimate'} gives no evidence to judge`, verdict.reasons);
+  }
+  const text = args.flag('json') ? `${JSON.stringify(analysisToJson(design, analysis, input.kind === 'scan' ? input.scan : undefined))}\n` : marginTable(design, analysis, scanPath);
   await writeOutput(context, args.value('out'), text);
-  return analysis.report.pass ? ExitCode.Ok : ExitCode.NotPassed;
+  return exitCodeOf(verdict);
 }
 
-function readNumber(args: ParsedArgs, name: string, min: number, max: number): number | undefined {
-  const text = args.value(name);
-  if (text === undefined) return undefined;
-  const value = Number(text.trim().replace(/\s*dB(µV|uV)?$/iu, ''));
-  if (!(Number.isFinite(value) && value >= min && value <= max) || text.trim() === '') {
-    throw new UsageError(`--${name} must be a number from ${min} to ${max}, got "${text}"`, 'check');
-  }
-  return value;
+/** 0 for a pass, 1 for a fail (a band short of the target or not covered), 2 when nothing was judged. */
+export function exitCodeOf(verdict: Verdict): ExitCode {
+  return verdict.status === 'pass' ? ExitCode.Ok : verdict.status === 'fail' ? ExitCode.NotPassed : ExitCode.BadInput;
 }
+
+/** "6 dB", "20 dBµV": a unit after a dB figure is allowed and dropped. */
+const DB_UNIT = /\s*dB(µV|uV)?$/iu;
 
 function readChoice<T extends string>(args: ParsedArgs, name: string, choices: readonly T[]): T | undefined {
   const text = args.value(name);
@@ -120,7 +128,7 @@ function readScanOptions(args: ParsedArgs, scanPath: string | undefined): ScanCs
   const levelText = args.value('level-unit');
   const levelUnit: LevelUnitName | undefined = levelText === undefined ? undefined : LEVEL_UNIT_NAMES.find((u) => u.toLowerCase() === levelText.toLowerCase());
   if (levelText !== undefined && levelUnit === undefined) throw new UsageError(`--level-unit must be dBuV, dBm, dBuA, V or dBV, got "${levelText}"`, 'check');
-  const transfer = readNumber(args, 'transfer-impedance', 1e-6, 1e6);
+  const transfer = readDecimalOption(args, 'transfer-impedance', 'check', { min: 1e-6, max: 1e6, unit: /\s*(Ω|ohms?)$/iu });
   return {
     name: scanPath ?? 'scan',
     ...(tag ? { tag } : {}),
@@ -138,8 +146,15 @@ async function readMasks(args: ParsedArgs, context: CommandContext, design: Desi
     if (own.length === 0) throw new CliError('no limit to judge against: give --limit <preset ids or mask files> or add emissions.masks to the design');
     return [...own];
   }
+  const items = text.split(',').map((s) => s.trim()).filter((s) => s !== '');
+  if (items.length === 0) throw new UsageError('--limit needs at least one preset id or file', 'check');
+  const repeated = items.find((item, i) => items.indexOf(item) !== i);
+  if (repeated !== undefined) throw new UsageError(`--limit: "${repeated}" is given twice; give each limit once`, 'check');
+  if (items.length > MAX_LIMIT_MASKS) {
+    throw new UsageError(`--limit gives ${items.length} limits; a design is judged against at most ${MAX_LIMIT_MASKS}`, 'check');
+  }
   const masks: LimitMask[] = [];
-  for (const item of text.split(',').map((s) => s.trim()).filter((s) => s !== '')) {
+  for (const item of items) {
     if (findPreset(item)) {
       masks.push(copyPreset(item));
       continue;
@@ -151,11 +166,12 @@ async function readMasks(args: ParsedArgs, context: CommandContext, design: Desi
     if (!read.ok) throw new CliError(`${item} is not a usable limit mask:`, listProblems(read.issues.map(formatLineIssue)));
     masks.push(read.value.mask);
   }
-  if (masks.length === 0) throw new UsageError('--limit needs at least one preset id or file', 'check');
   return masks;
 }
 
 const MHZ = (f: number): string => formatQuantity(f, 'Hz', 4);
+/** Six digits for a covered span, so that 29.998 MHz does not read as the band's 30 MHz. */
+const EDGE = (f: number): string => formatQuantity(f, 'Hz', 6);
 const DB = (x: number): string => (Number.isFinite(x) ? x.toFixed(1) : '–');
 
 function pointRow(point: MarginPoint): string {
@@ -172,8 +188,8 @@ export function marginTable(design: Design, analysis: EmissionsAnalysis, scanPat
   lines.push('');
   lines.push('band                     worst margin');
   for (const band of report.bands) {
-    const verdict = band.pass === undefined ? 'no limit here' : band.pass ? 'meets target' : 'BELOW TARGET';
-    lines.push(`${band.name.padEnd(24)} ${band.worst ? pointRow(band.worst) : '–'}  ${verdict}`);
+    lines.push(`${band.name.padEnd(24)} ${band.worst ? pointRow(band.worst) : '–'}  ${BAND_WORDS[band.status]}`);
+    lines.push(`${''.padEnd(24)} ${coverageText(band)}`);
   }
   lines.push('');
   lines.push(`worst peaks (lowest margin first):`);
@@ -201,24 +217,46 @@ export function marginTable(design: Design, analysis: EmissionsAnalysis, scanPat
   if (report.comparisons.some((c) => c.conservative)) lines.push('* a peak (or quasi-peak) reading judged against a lower-reading detector’s limit: conservative');
   for (const note of [...analysis.notes, ...report.notes]) lines.push(`note: ${note}`);
   lines.push('');
-  const failing = report.bands.filter((b) => b.pass === false).length;
-  lines.push(report.pass ? `RESULT: PASS, every band keeps ${report.targetMarginDb} dB of margin` : `RESULT: FAIL, ${failing} band${failing === 1 ? '' : 's'} below the ${report.targetMarginDb} dB target`);
+  lines.push(resultLine(report.verdict, report.targetMarginDb));
   return `${lines.join('\n')}\n`;
 }
 
-function analysisToJson(design: Design, analysis: EmissionsAnalysis): unknown {
+const BAND_WORDS: Readonly<Record<BandResult['status'], string>> = { pass: 'meets target', fail: 'BELOW TARGET', 'not-covered': 'NOT COVERED' };
+
+/** The band's evidence: "29 judged points, covering 150 kHz to 498 kHz", or why it is not covered. */
+function coverageText(band: BandResult): string {
+  if (band.status === 'not-covered') return `not covered: ${band.reason}`;
+  const span = band.coveredFromHz === undefined || band.coveredToHz === undefined ? '' : `, covering ${EDGE(band.coveredFromHz)} to ${EDGE(band.coveredToHz)}`;
+  const floor = band.coveredPoints - band.judgedPoints;
+  return `${band.judgedPoints} judged point${band.judgedPoints === 1 ? '' : 's'}${floor > 0 ? ` (${floor} more at the noise floor)` : ''}${span}`;
+}
+
+function resultLine(verdict: Verdict<BandResult>, target: number): string {
+  const points = `${verdict.judgedPoints} judged point${verdict.judgedPoints === 1 ? '' : 's'}`;
+  if (verdict.status === 'pass') return `RESULT: PASS, every band keeps ${target} dB of margin (${points})`;
+  const below = verdict.items.filter((b) => b.status === 'fail').length;
+  const uncovered = verdict.items.filter((b) => b.status === 'not-covered').length;
+  const parts: string[] = [];
+  if (below > 0) parts.push(`${below} band${below === 1 ? '' : 's'} below the ${target} dB target`);
+  if (uncovered > 0) parts.push(`${uncovered} band${uncovered === 1 ? '' : 's'} not covered`);
+  return `RESULT: FAIL, ${parts.join(', ') || describeShortfall(verdict)} (${points})`;
+}
+
+function analysisToJson(design: Design, analysis: EmissionsAnalysis, scan: Scan | undefined): unknown {
   const list = (a: Float64Array | undefined): (number | null)[] | undefined => (a ? Array.from(a, (x) => (Number.isFinite(x) ? x : null)) : undefined);
   return {
     design: design.name,
     input: analysis.input,
     targetMarginDb: analysis.report.targetMarginDb,
     pass: analysis.report.pass,
+    verdict: { status: analysis.report.verdict.status, judgedPoints: analysis.report.verdict.judgedPoints, reasons: analysis.report.verdict.reasons },
     masks: analysis.masks.map((m) => ({ id: m.id, name: m.name, detector: m.detector, origin: m.origin })),
     bands: analysis.report.bands,
     worst: analysis.report.worst,
     worstPeaks: analysis.report.worstPeaks,
     failingRanges: analysis.report.failingRanges,
     notes: [...analysis.notes, ...analysis.report.notes],
+    ...(scan ? { scanNotes: scan.notes, scanWarnings: scan.warnings ?? [] } : {}),
     frequencyHz: list(analysis.frequencyHz),
     predicted: analysis.predicted.map((s) => ({ label: s.label, detector: s.detector, levelDbuV: list(s.levelDbuV) })),
     comparisons: analysis.report.comparisons.map((c) => ({

@@ -23,7 +23,7 @@ export const limitsCommand: Command = {
   ],
   examples: [
     { command: 'chokepoint limits', description: 'the preset catalogue' },
-    { command: 'chokepoint limits --preset cispr32-class-b-qp -o class-b-qp.csv', description: 'a preset as an editable mask file' },
+    { command: 'chokepoint limits --preset cispr32-class-b-qp -o out/class-b-qp.csv', description: 'a preset as an editable mask file' },
     { command: 'chokepoint limits --read fixtures/masks/invented-in-house-class-b-qp-less-6.5db.csv', description: 'check a mask file' },
   ],
   run: runLimits,

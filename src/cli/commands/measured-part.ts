@@ -56,7 +56,7 @@ export const measuredPartCommand: Command = {
   ],
   examples: [
     { command: `chokepoint ${NAME} ${BEAD}`, description: 'the part from a |Z| table, on standard output' },
-    { command: `chokepoint ${NAME} ${WINDING} --fixture series-thru --id L1 --placement series-line1 -o l1.json`, description: 'a whole element from a series-thru Touchstone file, into l1.json' },
+    { command: `chokepoint ${NAME} ${WINDING} --fixture series-thru --id L1 --placement series-line1 -o out/l1.json`, description: 'a whole element from a series-thru Touchstone file, into out/l1.json' },
     { command: `chokepoint ${NAME} ${ONE_PORT}`, description: 'the part from a one-port reflection file' },
   ],
   run: runMeasuredPart,

@@ -43,8 +43,8 @@ export const reportCommand: Command = {
     { name: 'date', value: 'when', description: 'the date printed in the report (YYYY-MM-DD, or an ISO date and time); default now, in UTC' },
   ],
   examples: [
-    { command: `chokepoint report ${DEMO} --scan ${DEMO_SCAN} --out report.html`, description: 'the invented demo judged against its invented scan and its own limits' },
-    { command: `chokepoint report ${DEMO} --estimate --limit cispr32-class-b-qp,cispr32-class-b-av -o estimate.html --csv estimate`, description: 'from the noise estimate, with CSV files beside the page' },
+    { command: `chokepoint report ${DEMO} --scan ${DEMO_SCAN} --out out/report.html`, description: 'the invented demo judged against its invented scan and its own limits' },
+    { command: `chokepoint report ${DEMO} --estimate --limit cispr32-class-b-qp,cispr32-class-b-av -o out/estimate.html --csv out/estimate`, description: 'from the noise estimate, with CSV files beside the page' },
   ],
   run: runReport,
 };

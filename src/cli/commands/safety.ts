@@ -48,7 +48,7 @@ export const safetyCommand: Command = {
   examples: [
     { command: `chokepoint safety ${FIXTURE}`, description: 'the invented adapter with its operating conditions and safety choices' },
     { command: `chokepoint safety ${FIXTURE} --leakage-limit iec60335-1-class-ii --discharge 34V@1s`, description: 'the same against other choices' },
-    { command: `chokepoint safety ${DEMO} --skip saturation --json -o safety.json`, description: 'the demo, which gives no supply: its checks say what is missing' },
+    { command: `chokepoint safety ${DEMO} --skip saturation --json -o out/safety.json`, description: 'the demo, which gives no supply: its checks say what is missing' },
   ],
   run: runSafety,
 };

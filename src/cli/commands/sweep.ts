@@ -1,12 +1,13 @@
 import { sweepDesign } from '../../engine/index.ts';
-import { EXPORT_COLUMN_SETS, type ExportColumnSet, sweepToCsv, sweepToJson } from '../../io/sweep-export.ts';
+import { EXPORT_COLUMN_SETS, type ExportColumnSet, sweepCsvChunks, sweepJsonChunks } from '../../io/sweep-export.ts';
 import { frequencyPlanSchema } from '../../model/design-schema.ts';
 import { type Design, type FrequencyPlan, formatQuantity, parseQuantity } from '../../model/index.ts';
 import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { loadDesign } from '../design-input.ts';
 import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
-import { tell, writeOutput } from '../output.ts';
+import { readWholeOption } from '../numeric-options.ts';
+import { tell, writeOutputChunks } from '../output.ts';
 
 const DEMO = 'fixtures/demo/adapter-two-stage.design.json';
 
@@ -30,7 +31,7 @@ export const sweepCommand: Command = {
   ],
   examples: [
     { command: `chokepoint sweep ${DEMO}`, description: 'CSV on standard output' },
-    { command: `chokepoint sweep ${DEMO} --json --out sweep.json`, description: 'JSON into a file' },
+    { command: `chokepoint sweep ${DEMO} --json --out out/sweep.json`, description: 'JSON into a file' },
     { command: `chokepoint sweep ${DEMO} --start 150k --stop 30MHz --points-per-decade 50 --no-refine`, description: 'a quick, coarse look at the CISPR band B range' },
   ],
   run: runSweep,
@@ -44,11 +45,12 @@ async function runSweep(args: ParsedArgs, context: CommandContext): Promise<numb
   const planned = applyPlanOverrides(design, overrides);
 
   const result = sweepDesign(planned, { refine: !args.flag('no-refine') });
-  const text = args.flag('json')
-    ? `${JSON.stringify(sweepToJson(result, { columns, generator: `${context.program} ${context.io.version}` }))}\n`
-    : sweepToCsv(result, { columns });
+  // In pieces: a million-point sweep is written without ever being one string.
+  const chunks = args.flag('json')
+    ? withLineEnd(sweepJsonChunks(result, { columns, generator: `${context.program} ${context.io.version}` }))
+    : sweepCsvChunks(result, { columns });
   const out = args.value('out');
-  await writeOutput(context, out, text);
+  await writeOutputChunks(context, out, chunks);
 
   if (!args.flag('quiet')) {
     for (const warning of result.warnings) tell(context, `warning: ${warning.message}`);
@@ -61,6 +63,11 @@ async function runSweep(args: ParsedArgs, context: CommandContext): Promise<numb
     }
   }
   return ExitCode.Ok;
+}
+
+function* withLineEnd(chunks: Iterable<string>): Generator<string> {
+  yield* chunks;
+  yield '\n';
 }
 
 function readColumnSet(text: string | undefined): ExportColumnSet {
@@ -76,26 +83,29 @@ interface PlanOverrides {
   readonly pointsPerDecade?: number;
 }
 
+/**
+ * The frequencies an option may give, each on its own: from 1 mHz to 1 THz. Beyond them the
+ * number is not a plan but a typo (1e-320 Hz is below the smallest normal double and made the
+ * span of decades infinite), and the message names the option, not a field it happened to upset.
+ */
+export const OPTION_FREQUENCY_RANGE_HZ = { min: 1e-3, max: 1e12 } as const;
+
 function readFrequency(args: ParsedArgs, name: string): number | undefined {
   const text = args.value(name);
   if (text === undefined) return undefined;
   const parsed = parseQuantity(text, 'Hz');
   if (!parsed.ok) throw new UsageError(`--${name}: cannot read "${text}" as a frequency: ${parsed.reason}`, 'sweep');
-  if (!(parsed.value > 0)) throw new UsageError(`--${name} must be a positive frequency, got "${text}"`, 'sweep');
+  const { min, max } = OPTION_FREQUENCY_RANGE_HZ;
+  if (!(parsed.value >= min && parsed.value <= max)) {
+    throw new UsageError(`--${name} must be a frequency from ${formatQuantity(min, 'Hz')} to ${formatQuantity(max, 'Hz')}, got "${text}"`, 'sweep');
+  }
   return parsed.value;
 }
 
 function readPlanOverrides(args: ParsedArgs): PlanOverrides {
   const startHz = readFrequency(args, 'start');
   const stopHz = readFrequency(args, 'stop');
-  const densityText = args.value('points-per-decade');
-  let pointsPerDecade: number | undefined;
-  if (densityText !== undefined) {
-    pointsPerDecade = /^\d+$/u.test(densityText.trim()) ? Number(densityText) : Number.NaN;
-    if (!(Number.isInteger(pointsPerDecade) && pointsPerDecade >= 1 && pointsPerDecade <= 100_000)) {
-      throw new UsageError(`--points-per-decade must be a whole number from 1 to 100000, got "${densityText}"`, 'sweep');
-    }
-  }
+  const pointsPerDecade = readWholeOption(args, 'points-per-decade', 'sweep', 1, 100_000);
   return { startHz, stopHz, pointsPerDecade };
 }
 
@@ -123,8 +133,11 @@ function applyPlanOverrides(design: Design, overrides: PlanOverrides): Design {
   }
   const checked = frequencyPlanSchema.safeParse(merged);
   if (!checked.success) {
+    // A problem of the plan as a whole (too many points) is the three values together: name each one's source.
+    const whole = `from ${formatQuantity(merged.startHz, 'Hz')} (${source('startHz')}) to ${formatQuantity(merged.stopHz, 'Hz')} (${source('stopHz')}) at ${merged.pointsPerDecade} points per decade (${source('pointsPerDecade')})`;
     const details = checked.error.issues.map((issue) => {
       const key = issue.path[0];
+      if (key === 'pointsPerDecade' && /points; at most/u.test(issue.message)) return `the sweep ${whole}: ${issue.message}`;
       const where = typeof key === 'string' && key in PLAN_FIELD_OPTION ? source(key as keyof FrequencyPlan) : 'frequency plan';
       return `${where}: ${issue.message}`;
     });

@@ -25,6 +25,7 @@ const scanEntrySchema = z.strictObject({
   points: z.number().int().nonnegative(),
   detectors: z.array(z.enum(DETECTORS)).max(3),
   notes: z.array(z.string().max(2000)).max(200),
+  warnings: z.array(z.string().max(2000)).max(200).default([]),
   rejectedLines: z.number().int().nonnegative(),
   invented: z.boolean(),
 });
@@ -81,7 +82,7 @@ function pack(workspace: Workspace, pool: DocumentPool): PackedWorkspace {
     activeId: workspace.activeId,
     overlayIds: [...workspace.overlayIds],
     selection: workspace.selection ?? null,
-    scans: workspace.scans.map((s) => ({ ...s, detectors: [...s.detectors], notes: [...s.notes] })),
+    scans: workspace.scans.map((s) => ({ ...s, detectors: [...s.detectors], notes: [...s.notes], warnings: [...s.warnings] })),
     noise: workspace.noise,
     nextVariantNumber: workspace.nextVariantNumber,
   };

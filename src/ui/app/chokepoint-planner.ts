@@ -196,8 +196,13 @@ export class ChokepointPlanner extends LitElement {
         font-size: 13px;
         margin: 0;
       }
-      .status.error {
+      .status.error,
+      .reader-warnings {
         color: var(--cp-error-text);
+      }
+      .reader-warnings {
+        margin: 4px 0 0;
+        font-size: 13px;
       }
       .pair {
         display: grid;
@@ -579,9 +584,22 @@ export class ChokepointPlanner extends LitElement {
     if (result.sweep.status === 'error') return html`<p class="status error" role="status">The sweep failed: ${result.sweep.error.message}</p>`;
     if (result.sweep.status === 'running') return html`<p class="status" role="status" data-state="sweeping">Sweeping the change…</p>`;
     const f = result.sweep.result.frequencyHz;
-    return html`<p class="status" role="status" data-state="swept">
-      Swept ${f.length} points in ${result.sweep.elapsedMs.toFixed(1)} ms in the worker${result.analysis.status === 'done' ? `; judged in ${result.analysis.elapsedMs.toFixed(1)} ms` : ''}.
-    </p>`;
+    const analysis = result.analysis.status === 'done' ? result.analysis.analysis : undefined;
+    // A long scan is judged at the receiver's resolution (docs/emissions.md, "Large scans"): say so.
+    const points = analysis?.scanPoints;
+    const judged = analysis
+      ? `; judged ${analysis.input === 'scan' ? `the scan “${analysis.scanPrediction?.scanName ?? ''}”` : 'the noise estimate'}${
+          points && points.analysed < points.read ? ` (${points.read} points, judged at ${points.analysed}, binned to the receiver’s resolution)` : ''
+        } in ${result.analysis.status === 'done' ? result.analysis.elapsedMs.toFixed(1) : '–'} ms`
+      : '';
+    // The reader's warnings ("check the frequency unit …") belong beside the verdict they may explain.
+    const noise = this.workspace?.noise;
+    const scan = noise?.kind === 'scan' ? this.workspace?.scans.find((entry) => entry.id === noise.scanId) : undefined;
+    const warnings = analysis?.input === 'scan' ? (scan?.warnings ?? []) : [];
+    return html`<div class="status" role="status" data-state="swept">
+      <p class="status">Swept ${f.length} points in ${result.sweep.elapsedMs.toFixed(1)} ms in the worker${judged}.</p>
+      ${warnings.length > 0 ? html`<ul class="reader-warnings">${warnings.map((warning) => html`<li>Warning: ${warning}</li>`)}</ul>` : nothing}
+    </div>`;
   }
 }
 

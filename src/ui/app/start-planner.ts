@@ -10,6 +10,7 @@ import { plotToCsv } from '../../drawing/plot-csv.ts';
 import { drawPlot, plotToSvg } from '../../drawing/plot-svg.ts';
 import { svgToPngBlob } from '../drawing/svg-to-png.ts';
 import { parseJsonText } from '../../io/json-text.ts';
+import { decodeText } from '../../io/text-bytes.ts';
 import { encodeShareLink, readShareLink } from '../../io/share-link.ts';
 import { formatIssue } from '../../model/validation-error.ts';
 import { asJson, isJsonObject, type JsonObject } from '../../planner/json.ts';
@@ -164,6 +165,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
         points: scan.frequencyHz.length,
         detectors: scan.traces.map((t) => t.detector),
         notes: [...scan.notes],
+        warnings: [...(scan.warnings ?? [])],
         rejectedLines: scan.rejected.length,
         invented,
       };
@@ -221,7 +223,18 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
     }
     store.dispatch({ type: 'open-design', document: checked.value, origin: 'file', label: `open ${fileName}` });
   };
-  actions.onOpenFile = async (file) => openDesignText(await file.text(), file.name);
+  /** A file's text through the one decoder every way in uses: bytes that are not UTF-8 are refused, not replaced. */
+  const fileText = async (file: File): Promise<string | undefined> => {
+    const decoded = decodeText(new Uint8Array(await file.arrayBuffer()));
+    if (decoded.ok) return decoded.text;
+    say({ tone: 'error', text: `${file.name} cannot be read: ${decoded.error.message}; nothing was opened.` });
+    return undefined;
+  };
+  const openDesignFile = async (file: File): Promise<void> => {
+    const text = await fileText(file);
+    if (text !== undefined) openDesignText(text, file.name);
+  };
+  actions.onOpenFile = openDesignFile;
   actions.onSave = () => {
     const active = activeVariant(store.workspace);
     const valid = checkDocument(active.document);
@@ -251,7 +264,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
     const file = event.dataTransfer?.files[0];
     if (!file) return;
     event.preventDefault();
-    if (/\.json$/iu.test(file.name)) void file.text().then((text) => openDesignText(text, file.name));
+    if (/\.json$/iu.test(file.name)) void openDesignFile(file);
     else void planner.importScanFile(file);
   });
 

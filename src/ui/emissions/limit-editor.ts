@@ -2,6 +2,7 @@ import { css, html, LitElement, nothing, type TemplateResult } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
 import { readMaskCsv, maskToCsv } from '../../io/mask-csv.ts';
 import { formatLineIssue } from '../../io/text-issues.ts';
+import { decodeText } from '../../io/text-bytes.ts';
 import { emissionsSchema } from '../../model/design-schema.ts';
 import { DETECTORS, limitMaskSchema } from '../../model/emissions-schema.ts';
 import { masksOf } from '../../planner/edits/emissions-edits.ts';
@@ -250,7 +251,12 @@ export class LimitEditor extends LitElement {
     if (!file) return;
     let text: string;
     try {
-      text = await file.text();
+      const decoded = decodeText(new Uint8Array(await file.arrayBuffer()));
+      if (!decoded.ok) {
+        this.message = { text: `${file.name} cannot be read: ${decoded.error.message}. Nothing changed.`, details: [] };
+        return;
+      }
+      text = decoded.text;
     } catch (cause) {
       this.message = { text: `${file.name} could not be read: ${cause instanceof Error ? cause.message : String(cause)}. Nothing changed.`, details: [] };
       return;

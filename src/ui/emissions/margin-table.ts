@@ -4,8 +4,8 @@ import { sharedStyles } from '../styles/theme.ts';
 import type { MarginPointView, MarginTableView } from './margin-view.ts';
 
 /**
- * The margin report as tables: the overall result against the target margin, the worst margin in
- * each band, the worst peaks, the ranges short of the target, the attenuation still needed per mode
+ * The margin report as tables: the overall result against the target margin with its reasons, the
+ * worst margin in each band with the evidence behind it (judged points, covered span), the worst peaks, the ranges short of the target, the attenuation still needed per mode
  * (with a small chart) and the analysis' notes. Renders a MarginTableView; computes nothing.
  */
 @customElement('chokepoint-margin-table')
@@ -47,6 +47,14 @@ export class MarginTable extends LitElement {
       }
       .verdict.none strong {
         color: var(--cp-muted);
+      }
+      .verdict.none {
+        border-left-color: var(--cp-muted);
+      }
+      .reasons {
+        flex-basis: 100%;
+        margin: 2px 0 0;
+        padding-left: 18px;
       }
       h3:first-of-type {
         margin-top: 0;
@@ -146,6 +154,7 @@ export class MarginTable extends LitElement {
         <strong>${view.verdictWord}</strong>
         <span>${view.summary}</span>
         <span class="muted small">Target margin ${view.targetText} below every limit.</span>
+        ${view.reasons.length > 0 ? html`<ul class="reasons small">${view.reasons.map((reason) => html`<li>${reason}</li>`)}</ul>` : nothing}
       </div>
 
       <h3>Worst margin in each band</h3>
@@ -159,16 +168,23 @@ export class MarginTable extends LitElement {
             <th scope="col">Level</th>
             <th scope="col">Limit</th>
             <th scope="col">Limit line and trace</th>
+            <th scope="col" title="Points with a limit and a margin (points at the noise floor are counted apart)">Judged points</th>
+            <th scope="col" title="The lowest and highest frequency of the band where a limit applies and the noise was seen">Covered</th>
             <th scope="col">Result</th>
           </tr>
         </thead>
         <tbody>
           ${view.bands.map(
             (band) => html`
-              <tr class=${band.verdict} data-band=${band.name}>
+              <tr class=${band.verdict} data-band=${band.name} data-status=${band.verdict === 'none' ? 'not-covered' : band.verdict}>
                 <td class="band">${band.name}</td>
-                ${band.worst ? this.pointCells(band.worst) : html`<td colspan="5" class="muted">no limit line covers this band</td>`}
-                <td><span class="result ${band.verdict}">${band.verdictText}</span></td>
+                ${band.worst ? this.pointCells(band.worst) : html`<td colspan="5" class="muted">no judged point</td>`}
+                <td class="num judged">${band.judged}</td>
+                <td class="num covered">${band.covered}</td>
+                <td>
+                  <span class="result ${band.verdict}" title=${band.reason}>${band.verdictText}</span>
+                  ${band.verdict === 'none' ? html`<span class="which why">${band.reason}</span>` : nothing}
+                </td>
               </tr>
             `,
           )}

@@ -1,5 +1,5 @@
 import type { EmissionsAnalysis } from '../../spectrum/emissions-analysis.ts';
-import type { MarginPoint } from '../../spectrum/margin.ts';
+import type { BandResult, MarginPoint } from '../../spectrum/margin.ts';
 import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 
 /**
@@ -30,8 +30,15 @@ export interface MarginPointView {
 export interface BandView {
   readonly name: string;
   readonly worst: MarginPointView | undefined;
+  /** 'none' for a band not covered by judged points. */
   readonly verdict: Verdict;
   readonly verdictText: string;
+  /** "29", or "29 (+59 at the floor)": how many points the band's verdict rests on. */
+  readonly judged: string;
+  /** "150 kHz – 498 kHz", or "–" when no point of the band is covered. */
+  readonly covered: string;
+  /** Why the band has its verdict, in words (for a band not covered: what is missing). */
+  readonly reason: string;
 }
 
 export interface RangeView {
@@ -49,10 +56,13 @@ export interface RequiredView {
 }
 
 export interface MarginTableView {
+  /** 'none' when nothing was judged: there is no result. */
   readonly verdict: Verdict;
-  /** "PASS", "FAIL" or "NOT JUDGED". */
+  /** "PASS", "FAIL" or "NO RESULT". */
   readonly verdictWord: string;
   readonly summary: string;
+  /** For a fail or no result: each band short or not covered, or why nothing was judged, and the reader's hints. */
+  readonly reasons: readonly string[];
   readonly targetMarginDb: number;
   readonly targetText: string;
   readonly bands: readonly BandView[];
@@ -103,28 +113,49 @@ function requiredView(mode: RequiredView['mode'], values: Float64Array | undefin
   return { mode, most: formatDb(largest.value), where: `at ${formatFrequency(analysis.frequencyHz[largest.index]!, 4)}` };
 }
 
+function bandView(band: BandResult, target: number): BandView {
+  const worst = band.worst ? pointView(band.worst, target) : undefined;
+  const verdict: Verdict = band.status === 'pass' ? 'pass' : band.status === 'fail' ? 'fail' : 'none';
+  const verdictText =
+    verdict === 'none' ? 'NOT COVERED' : verdict === 'pass' ? 'PASS' : worst && worst.marginDb < 0 ? 'FAIL, over the limit' : 'FAIL, short of the target';
+  const atFloor = band.coveredPoints - band.judgedPoints;
+  const covered =
+    band.coveredFromHz === undefined || band.coveredToHz === undefined
+      ? '–'
+      : `${formatFrequency(band.coveredFromHz, 6)} – ${formatFrequency(band.coveredToHz, 6)}`;
+  return {
+    name: band.name,
+    worst,
+    verdict,
+    verdictText,
+    judged: atFloor > 0 ? `${band.judgedPoints} (+${atFloor} at the floor)` : String(band.judgedPoints),
+    covered,
+    reason: band.reason,
+  };
+}
+
 export function marginTableView(analysis: EmissionsAnalysis): MarginTableView {
   const report = analysis.report;
   const target = report.targetMarginDb;
-  const judged = report.comparisons.length > 0;
-  const failing = report.bands.filter((band) => band.pass === false).length;
-  const verdict: Verdict = !judged ? 'none' : report.pass ? 'pass' : 'fail';
+  const status = report.verdict.status;
+  const failing = report.bands.filter((band) => band.status === 'fail').length;
+  const uncovered = report.bands.filter((band) => band.status === 'not-covered').length;
+  const verdict: Verdict = status === 'refused' ? 'none' : status === 'pass' ? 'pass' : 'fail';
   const targetText = `${target} dB`;
+  const plural = (n: number): string => `${n} band${n === 1 ? '' : 's'}`;
+  const judgedText = `${report.verdict.judgedPoints} judged point${report.verdict.judgedPoints === 1 ? '' : 's'}`;
+  const shortfall = [
+    ...(failing > 0 ? [`${plural(failing)} below the ${targetText} target margin`] : []),
+    ...(uncovered > 0 ? [`${plural(uncovered)} not covered by judged points`] : []),
+  ];
   const summary =
     verdict === 'none'
-      ? 'No limit line could be applied, so nothing was judged.'
+      ? 'No result: nothing was judged, so there is nothing to pass or fail.'
       : verdict === 'pass'
-        ? `Every band keeps at least the ${targetText} target margin below every limit.`
-        : `${failing} band${failing === 1 ? '' : 's'} below the ${targetText} target margin.`;
+        ? `Every band is covered and keeps at least the ${targetText} target margin below every limit (${judgedText}).`
+        : `${shortfall.join('; ')} (${judgedText}).`;
 
-  const bands: BandView[] = report.bands.map((band) => {
-    const worst = band.worst ? pointView(band.worst, target) : undefined;
-    const bandVerdict: Verdict = band.pass === undefined ? 'none' : band.pass ? 'pass' : 'fail';
-    const verdictText =
-      bandVerdict === 'none' ? 'no limit here' : bandVerdict === 'pass' ? 'PASS' : worst && worst.marginDb < 0 ? 'FAIL, over the limit' : 'FAIL, short of the target';
-    return { name: band.name, worst, verdict: bandVerdict, verdictText };
-  });
-
+  const bands: BandView[] = report.bands.map((band) => bandView(band, target));
   const peaks = report.worstPeaks.map((point) => pointView(point, target));
   const failingRanges = report.failingRanges.map(
     (range): RangeView => ({ from: formatFrequency(range.startHz, 4), to: formatFrequency(range.stopHz, 4), worst: pointView(range.worst, target) }),
@@ -132,8 +163,9 @@ export function marginTableView(analysis: EmissionsAnalysis): MarginTableView {
   const notes = [...new Set([...analysis.notes, ...report.notes])];
   return {
     verdict,
-    verdictWord: verdict === 'none' ? 'NOT JUDGED' : verdict === 'pass' ? 'PASS' : 'FAIL',
+    verdictWord: verdict === 'none' ? 'NO RESULT' : verdict === 'pass' ? 'PASS' : 'FAIL',
     summary,
+    reasons: verdict === 'pass' ? [] : report.verdict.reasons,
     targetMarginDb: target,
     targetText,
     bands,

@@ -4,7 +4,8 @@ import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 import type { FrequencyUnit } from '../../io/frequency-unit.ts';
 import type { Design } from '../../model/design.ts';
 import type { LevelUnitName } from '../../spectrum/level-units.ts';
-import { SCAN_TAGS, type RejectedLine, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import { DEFAULT_SCAN_TAG, SCAN_TAGS, type RejectedLine, type ScanTag } from '../../spectrum/spectrum-types.ts';
+import { MAX_SCAN_FILE_BYTES, scanFileTooLarge } from '../../io/scan-limits.ts';
 import type { ScanImportOptions, ScanImportReply } from '../../../workers/scan-import-api.ts';
 import type { ScanEntry, Workspace } from '../../planner/workspace.ts';
 import { sendIntent } from '../app/intent-event.ts';
@@ -20,7 +21,8 @@ import type { Scan } from '../../spectrum/spectrum-types.ts';
 
 /** What the panel needs of the page: read a scan's text, and keep a scan's columns (returning its entry). */
 export interface ScanPanelHost {
-  importScan(text: string, options: ScanImportOptions, onProgress: (fractionDone: number) => void): Promise<ScanImportReply>;
+  /** A file's bytes (decoded in the worker, which says why when they are not UTF-8 text) or text. */
+  importScan(content: string | Uint8Array, options: ScanImportOptions, onProgress: (fractionDone: number) => void): Promise<ScanImportReply>;
   keepScan(scan: Scan, invented: boolean): Promise<ScanEntry>;
   /** The invented demo scan's text. */
   demoScanText(): Promise<string>;
@@ -43,8 +45,6 @@ const LEVEL_CHOICES: readonly { value: LevelUnitName; text: string }[] = [
   { value: 'V', text: 'V' },
 ];
 
-/** An untagged scan is read as one line of unknown mode, as the command line reads it. */
-export const DEFAULT_SCAN_TAG: ScanTag = 'total';
 
 type ImportState =
   | { readonly kind: 'idle' }
@@ -154,6 +154,14 @@ export class ScanPanel extends LitElement {
         color: var(--cp-muted);
         margin: 2px 0 0 20px;
       }
+      .notes-wrap {
+        margin: 0 0 4px 20px;
+      }
+      .warnings {
+        font-size: 12px;
+        color: var(--cp-error-text);
+        margin: 2px 0 4px 20px;
+      }
     `,
   ];
 
@@ -168,16 +176,23 @@ export class ScanPanel extends LitElement {
   @state() private importState: ImportState = { kind: 'idle' };
   private count = 0;
 
-  /** Read a file dropped on the page (the planner hands it over). */
+  /** Read a scan file (picked, or dropped on the page): its bytes, refused unread when too large. */
   async importFile(file: File): Promise<void> {
-    let text: string;
+    if (file.size > MAX_SCAN_FILE_BYTES) {
+      // Refused unread, as the command line does: reading it could take the page's memory.
+      this.importState = { kind: 'failed', fileName: file.name, message: scanFileTooLarge(file.size), rejected: [], notes: [] };
+      return;
+    }
+    // The bytes, not file.text(): the worker decodes them as UTF-8 or says why it cannot (a Latin-1 or
+    // UTF-16 export), where file.text() would replace what does not read without a word.
+    let bytes: Uint8Array;
     try {
-      text = await file.text();
+      bytes = new Uint8Array(await file.arrayBuffer());
     } catch (cause) {
       this.importState = { kind: 'failed', fileName: file.name, message: `the file could not be read: ${cause instanceof Error ? cause.message : String(cause)}`, rejected: [], notes: [] };
       return;
     }
-    await this.importText(text, file.name, false);
+    await this.importText(bytes, file.name, false);
   }
 
   override render() {
@@ -245,7 +260,8 @@ export class ScanPanel extends LitElement {
         </span>
         <button type="button" class="remove" aria-label="Remove the scan ${scan.name}" @click=${(event: Event) => (event.preventDefault(), sendIntent(this, { type: 'remove-scan', scanId: scan.id }))}>remove</button>
       </label>
-      ${scan.notes.length > 0 ? html`<ul class="notes">${scan.notes.map((note) => html`<li>${note}</li>`)}</ul>` : nothing}`;
+      ${scan.warnings.length > 0 ? html`<ul class="warnings">${scan.warnings.map((warning) => html`<li>Warning: ${warning}</li>`)}</ul>` : nothing}
+      ${scan.notes.length > 0 ? html`<details class="notes-wrap"><summary class="small">How the file was read</summary><ul class="notes">${scan.notes.map((note) => html`<li>${note}</li>`)}</ul></details>` : nothing}`;
   }
 
   private renderImport() {
@@ -289,7 +305,7 @@ export class ScanPanel extends LitElement {
     await this.importText(text, name, true, 'line1');
   }
 
-  private async importText(text: string, fileName: string, invented: boolean, tag: ScanTag = this.tag): Promise<void> {
+  private async importText(content: string | Uint8Array, fileName: string, invented: boolean, tag: ScanTag = this.tag): Promise<void> {
     const host = this.host;
     this.count += 1;
     const count = this.count;
@@ -305,7 +321,7 @@ export class ScanPanel extends LitElement {
       ...(this.transferImpedanceOhm !== undefined ? { transferImpedanceOhm: this.transferImpedanceOhm } : {}),
     };
     this.importState = { kind: 'reading', fileName, fractionDone: 0 };
-    const reply = await host.importScan(text, options, (fractionDone) => {
+    const reply = await host.importScan(content, options, (fractionDone) => {
       if (count === this.count && this.importState.kind === 'reading') this.importState = { kind: 'reading', fileName, fractionDone };
     });
     if (count !== this.count) return;

@@ -17,7 +17,7 @@ function editedStore(): PlannerStore {
   store.dispatch({ type: 'add-stage' });
   store.dispatch({ type: 'set-overlay', id: store.workspace.variants[1]!.id, shown: true });
   store.dispatch({ type: 'select', selection: { kind: 'element', id: 'CX1' } });
-  store.dispatch({ type: 'add-scan', entry: { id: 's1', name: 'scan.csv', tag: 'total', points: 3, detectors: ['peak'], notes: ['read as dBµV'], rejectedLines: 0, invented: false }, use: true });
+  store.dispatch({ type: 'add-scan', entry: { id: 's1', name: 'scan.csv', tag: 'total', points: 3, detectors: ['peak'], notes: ['read as dBµV'], warnings: [], rejectedLines: 0, invented: false }, use: true });
   store.undo();
   return store;
 }

@@ -18,7 +18,7 @@ describe('<chokepoint-margin-table>', () => {
     expect(table.shadowRoot?.textContent?.trim()).toBe('');
   });
 
-  it('renders the overall result, each band’s worst margin with pass or fail, the peaks, the ranges and the notes', async () => {
+  it('renders the overall result, each band’s worst margin with its evidence and pass or fail, the peaks, the ranges and the notes', async () => {
     const view = marginTableView(analyse(emissionsDesignDocument(), scanNoise(syntheticScan())));
     const table = document.createElement('chokepoint-margin-table');
     table.view = view;
@@ -40,6 +40,8 @@ describe('<chokepoint-margin-table>', () => {
         band.worst!.level,
         band.worst!.limit,
         `${band.worst!.mask} ${band.worst!.series}`,
+        band.judged,
+        band.covered,
         band.verdictText,
       ]);
     });
@@ -48,5 +50,24 @@ describe('<chokepoint-margin-table>', () => {
     const notes = [...root.querySelectorAll('.notes li')].map((li) => li.textContent?.trim());
     expect(notes).toEqual(view.notes);
     expect([...root.querySelectorAll('.required dt')].map((dt) => dt.textContent)).toEqual(['common mode', 'differential mode']);
+  });
+});
+
+describe('<chokepoint-margin-table>: a verdict needs evidence', () => {
+  it('a scan covering the low band only: the other bands say NOT COVERED with why, the verdict lists the reasons', async () => {
+    const view = marginTableView(analyse(emissionsDesignDocument(), scanNoise(syntheticScan({ stopHz: 480e3 }))));
+    const table = document.createElement('chokepoint-margin-table');
+    table.view = view;
+    document.body.append(table);
+    await table.updateComplete;
+    const root = table.shadowRoot!;
+    expect(root.querySelector('.verdict strong')?.textContent).toBe('FAIL');
+    const rows = [...root.querySelectorAll('table.bands tbody tr')];
+    expect(rows.map((row) => row.getAttribute('data-status')).slice(1)).toEqual(['not-covered', 'not-covered']);
+    // The low band has judged points: it fails on them or, passing, still misses its upper edge (480 of 500 kHz).
+    expect(rows[0]!.getAttribute('data-status')).not.toBe('pass');
+    expect(cells(rows[1]!).at(-1)).toBe('NOT COVERED the scan has no point in this band');
+    const reasons = [...root.querySelectorAll('.verdict .reasons li')].map((li) => li.textContent?.trim());
+    expect(reasons).toContain('5–30 MHz: not covered: the scan has no point in this band');
   });
 });

@@ -2,7 +2,8 @@
 // What the margin table says is worked out without a DOM.
 import { describe, expect, it } from 'vitest';
 import type { EmissionsAnalysis } from '../../../src/spectrum/emissions-analysis.ts';
-import type { MarginPoint, MarginReport } from '../../../src/spectrum/margin.ts';
+import type { BandResult, MarginPoint, MarginReport } from '../../../src/spectrum/margin.ts';
+import { judge } from '../../../src/spectrum/verdict.ts';
 import { formatDb, largestFinite, marginTableView } from '../../../src/ui/emissions/margin-view.ts';
 import { analyse, emissionsDesignDocument, scanNoise, syntheticScan } from '../support/emissions-fixtures.ts';
 
@@ -16,6 +17,27 @@ const point = (marginDb: number, frequencyHz: number, conservative = false): Mar
   conservative,
 });
 
+/** A judged band as the margin report gives it. */
+const band = (name: string, startHz: number, stopHz: number, worst: MarginPoint | undefined, status: BandResult['status'], judgedPoints = worst ? 12 : 0): BandResult => ({
+  name,
+  startHz,
+  stopHz,
+  worst,
+  status,
+  judgedPoints,
+  coveredPoints: judgedPoints,
+  coveredFromHz: judgedPoints > 0 ? startHz : undefined,
+  coveredToHz: judgedPoints > 0 ? stopHz : undefined,
+  reason: status === 'not-covered' ? 'the scan has no point in this band' : 'worst margin …',
+  pass: status === 'pass' ? true : status === 'fail' ? false : undefined,
+});
+
+/** A report's bands with the verdict they make. */
+const judged = (bands: BandResult[]): Partial<MarginReport> => {
+  const verdict = judge(bands);
+  return { bands, verdict, pass: verdict.status === 'pass' };
+};
+
 /** An analysis with a hand-made report: only the fields the table reads. */
 function withReport(report: Partial<MarginReport>, extra: Partial<EmissionsAnalysis> = {}): EmissionsAnalysis {
   const base = analyse(emissionsDesignDocument(), scanNoise(syntheticScan({ points: 200 })));
@@ -27,37 +49,40 @@ describe('marginTableView', () => {
     const view = marginTableView(
       withReport({
         targetMarginDb: 6,
-        pass: false,
-        bands: [
-          { name: '0.15–0.5 MHz', startHz: 150e3, stopHz: 500e3, worst: point(4.6, 262e3), pass: false },
-          { name: '0.5–5 MHz', startHz: 500e3, stopHz: 5e6, worst: point(-2.25, 586e3), pass: false },
-          { name: '5–30 MHz', startHz: 5e6, stopHz: 30e6, worst: point(44.9, 7.41e6), pass: true },
-          { name: 'above 30 MHz', startHz: 30e6, stopHz: 108e6, worst: undefined, pass: undefined },
-        ],
+        ...judged([
+          band('0.15–0.5 MHz', 150e3, 500e3, point(4.6, 262e3), 'fail'),
+          band('0.5–5 MHz', 500e3, 5e6, point(-2.25, 586e3), 'fail'),
+          band('5–30 MHz', 5e6, 30e6, point(44.9, 7.41e6), 'pass'),
+          band('above 30 MHz', 30e6, 108e6, undefined, 'not-covered'),
+        ]),
       }),
     );
     expect(view.verdict).toBe('fail');
     expect(view.verdictWord).toBe('FAIL');
-    expect(view.summary).toBe('2 bands below the 6 dB target margin.');
-    expect(view.bands.map((b) => [b.name, b.verdict, b.verdictText, b.worst?.margin, b.worst?.frequency])).toEqual([
-      ['0.15–0.5 MHz', 'fail', 'FAIL, short of the target', '4.6 dB', '262 kHz'],
-      ['0.5–5 MHz', 'fail', 'FAIL, over the limit', '-2.3 dB', '586 kHz'],
-      ['5–30 MHz', 'pass', 'PASS', '44.9 dB', '7.41 MHz'],
-      ['above 30 MHz', 'none', 'no limit here', undefined, undefined],
+    expect(view.summary).toBe('2 bands below the 6 dB target margin; 1 band not covered by judged points (36 judged points).');
+    expect(view.bands.map((b) => [b.name, b.verdict, b.verdictText, b.worst?.margin, b.worst?.frequency, b.judged, b.covered])).toEqual([
+      ['0.15–0.5 MHz', 'fail', 'FAIL, short of the target', '4.6 dB', '262 kHz', '12', '150 kHz – 500 kHz'],
+      ['0.5–5 MHz', 'fail', 'FAIL, over the limit', '-2.3 dB', '586 kHz', '12', '500 kHz – 5 MHz'],
+      ['5–30 MHz', 'pass', 'PASS', '44.9 dB', '7.41 MHz', '12', '5 MHz – 30 MHz'],
+      ['above 30 MHz', 'none', 'NOT COVERED', undefined, undefined, '0', '–'],
     ]);
+    expect(view.bands[3]!.reason).toBe('the scan has no point in this band');
+    expect(view.reasons).toContain('above 30 MHz: not covered: the scan has no point in this band');
     expect(view.bands[0]?.worst).toMatchObject({ level: '45.4 dBµV', limit: '50.0 dBµV', mask: 'Class B, average', series: 'line 1, predicted', short: true });
     expect(view.bands[2]?.worst?.short).toBe(false);
   });
 
-  it('passes when every band keeps the target, and says nothing was judged without a limit', () => {
-    const pass = marginTableView(withReport({ pass: true, bands: [{ name: 'all', startHz: 150e3, stopHz: 30e6, worst: point(12, 1e6), pass: true }] }));
+  it('passes when every band is covered and keeps the target, and gives no result when nothing was judged', () => {
+    const pass = marginTableView(withReport(judged([band('all', 150e3, 30e6, point(12, 1e6), 'pass')])));
     expect(pass.verdict).toBe('pass');
     expect(pass.verdictWord).toBe('PASS');
-    expect(pass.summary).toBe('Every band keeps at least the 6 dB target margin below every limit.');
+    expect(pass.summary).toBe('Every band is covered and keeps at least the 6 dB target margin below every limit (12 judged points).');
+    expect(pass.reasons).toEqual([]);
 
-    const none = marginTableView(withReport({ comparisons: [], pass: false, bands: [] }));
+    const none = marginTableView(withReport({ comparisons: [], ...judged([band('all', 150e3, 30e6, undefined, 'not-covered')]) }));
     expect(none.verdict).toBe('none');
-    expect(none.verdictWord).toBe('NOT JUDGED');
+    expect(none.verdictWord).toBe('NO RESULT');
+    expect(none.reasons[0]).toMatch(/nothing was judged/u);
   });
 
   it('lists the worst peaks, the failing ranges and marks conservative comparisons', () => {

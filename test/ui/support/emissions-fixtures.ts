@@ -54,18 +54,19 @@ export function emissionsDesignDocument(emissions: Record<string, unknown> = {})
 }
 
 /**
- * A scan on a linear axis from 150 kHz to 30 MHz: a floor of 15 dBµV with lobes at harmonics of
+ * A scan on a linear axis from 150 kHz to 30 MHz (or `stopHz`): a floor of 15 dBµV with lobes at harmonics of
  * 100 kHz falling with frequency (peak; QP 3 dB and AV 8 dB lower), like a flyback with no filter.
  */
-export function syntheticScan(options: { points?: number; tag?: ScanTag; name?: string } = {}): Scan {
+export function syntheticScan(options: { points?: number; tag?: ScanTag; name?: string; stopHz?: number } = {}): Scan {
   const n = options.points ?? 3000;
+  const stopHz = options.stopHz ?? 30e6;
   const buffer = new Float64Array(4 * n);
   const frequencyHz = buffer.subarray(0, n);
   const peak = buffer.subarray(n, 2 * n);
   const qp = buffer.subarray(2 * n, 3 * n);
   const av = buffer.subarray(3 * n, 4 * n);
   for (let i = 0; i < n; i += 1) {
-    const f = 150e3 + ((30e6 - 150e3) * i) / (n - 1);
+    const f = 150e3 + ((stopHz - 150e3) * i) / (n - 1);
     frequencyHz[i] = f;
     const harmonic = Math.round(f / 100e3);
     const offset = Math.abs(f - harmonic * 100e3);
