@@ -15,6 +15,9 @@ import {
 } from './emissions-protocol.ts';
 import { type SweepFailure, type SweepFailureKind, type SweepReply, sweepRequestSchema } from './sweep-protocol.ts';
 import { collectTransferables } from './transferables.ts';
+import { describeSource, DISCHARGE_REQUIREMENTS, formatFigure, LEAKAGE_LIMITS, runSafetyChecks } from '../src/safety/index.ts';
+import { makeReport } from '../src/report/make-report.ts';
+import { reportRequestSchema, type ReportReply, type SafetyReply, safetyRequestSchema } from './checks-protocol.ts';
 
 /**
  * Scans the page has handed over once, by the page's id, so that each later analysis names the scan
@@ -40,6 +43,32 @@ export const sweepApi = {
 
   forgetScan(scanId: unknown): boolean {
     return typeof scanId === 'string' && storedScans.delete(scanId);
+  },
+
+  /** The safety and practical checks (docs/safety.md). */
+  safetyChecks(request: unknown): SafetyReply {
+    return safetyChecks(request);
+  },
+
+  /**
+   * The names the page shows for the safety choices (listed leakage limits and discharge requirements):
+   * what each is for, its value, its standard and clause, and how sure the value is, in plain words.
+   */
+  safetyChoiceLabels(): Record<string, string> {
+    const labels: Record<string, string> = {};
+    for (const limit of LEAKAGE_LIMITS) {
+      const fault = limit.singleFaultA === undefined ? '' : `, ${formatFigure(limit.singleFaultA, 'A')} single fault`;
+      labels[limit.id] = `${limit.name}: ${formatFigure(limit.normalConditionA, 'A')}${fault} (${describeSource(limit.source)})`;
+    }
+    for (const requirement of DISCHARGE_REQUIREMENTS) {
+      if (requirement.id !== undefined) labels[requirement.id] = `${requirement.name}${requirement.source ? ` (${describeSource(requirement.source)})` : ''}`;
+    }
+    return labels;
+  },
+
+  /** The printable hand-over report and its CSV files (docs/report.md). */
+  report(request: unknown): ReportReply {
+    return report(request);
   },
 
   sweep(request: unknown): SweepReply {
@@ -134,6 +163,59 @@ export const sweepApi = {
 };
 
 export type SweepApi = typeof sweepApi;
+
+/** The safety checks of a design (docs/safety.md), as `chokepoint safety` runs them. */
+function safetyChecks(request: unknown): SafetyReply {
+  const parsed = safetyRequestSchema.safeParse(request, { reportInput: true });
+  if (!parsed.success) {
+    const issues = parsed.error.issues.map(toValidationIssue);
+    return { ok: false, requestId: salvageRequestId(request), error: { message: `invalid safety request: ${issues.map(formatIssue).join('; ')}`, issues } };
+  }
+  const read = readDesign(parsed.data.design);
+  if (!read.ok) return { ok: false, requestId: parsed.data.requestId, error: { message: 'invalid design', issues: read.error.issues } };
+  try {
+    return { ok: true, requestId: parsed.data.requestId, report: runSafetyChecks(read.value, parsed.data.options ?? {}) };
+  } catch (cause) {
+    return { ok: false, requestId: parsed.data.requestId, error: { message: `the safety checks failed: ${cause instanceof Error ? cause.message : String(cause)}`, issues: [] } };
+  }
+}
+
+/** The hand-over report (docs/report.md), made exactly as `chokepoint report` makes it. */
+function report(request: unknown): ReportReply {
+  const parsed = reportRequestSchema.safeParse(request, { reportInput: true });
+  if (!parsed.success) {
+    const issues = parsed.error.issues.map(toValidationIssue);
+    return { ok: false, error: { message: `invalid report request: ${issues.map(formatIssue).join('; ')}`, issues } };
+  }
+  const { design, noise, variants, designVariantName, origin } = parsed.data;
+  const read = readDesign(design);
+  if (!read.ok) return { ok: false, error: { message: 'invalid design', issues: read.error.issues } };
+  const others = [];
+  for (const variant of variants) {
+    const other = readDesign(variant.design);
+    if (!other.ok) return { ok: false, error: { message: `variant “${variant.name}” is not a valid design`, issues: other.error.issues } };
+    others.push({ variantId: variant.variantId, name: variant.name, design: other.value });
+  }
+  let noiseInput: NoiseInput | undefined;
+  if (noise?.kind === 'stored-scan') {
+    const scan = storedScans.get(noise.scanId);
+    if (!scan) return { ok: false, error: { message: `the worker holds no scan "${noise.scanId}"`, issues: [] } };
+    noiseInput = { kind: 'scan', scan };
+  } else if (noise?.kind === 'estimate') noiseInput = { kind: 'estimate' };
+  try {
+    const made = makeReport({
+      design: read.value,
+      ...(noiseInput ? { noise: noiseInput } : {}),
+      variants: others,
+      ...(designVariantName ? { designVariantName } : {}),
+      origin: { program: 'chokepoint', version: origin.version, generatedAt: origin.generatedAt, ...(origin.scanFile ? { scanFile: origin.scanFile } : {}) },
+    });
+    return { ok: true, html: made.html, csv: made.csv, designHash: made.data.designHash };
+  } catch (cause) {
+    return { ok: false, error: { message: `the report could not be made: ${cause instanceof Error ? cause.message : String(cause)}`, issues: [] } };
+  }
+}
+
 
 function failure(requestId: number | null, kind: SweepFailureKind, what: string, issues: readonly ValidationIssue[]): SweepFailure {
   const detail = issues.map(formatIssue).join('; ');

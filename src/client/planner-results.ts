@@ -6,6 +6,9 @@ import type { EmissionsNoise, StoreScanRequest } from '../../workers/emissions-p
 import { EmissionsClient, type EmissionsRemote } from './emissions-client.ts';
 import type { EmissionsError } from './emissions-outcome.ts';
 import { SweepClient, type SweepRemote } from './sweep-client.ts';
+import { NewestRequestQueue } from './newest-request-queue.ts';
+import type { SafetyReport } from '../safety/index.ts';
+import type { SafetyRequest } from '../../workers/checks-protocol.ts';
 import type { SweepError } from './sweep-outcome.ts';
 import type { SweepResult } from '../engine/index.ts';
 import type { EmissionsAnalysis } from '../spectrum/emissions-analysis.ts';
@@ -20,7 +23,13 @@ import type { EmissionsAnalysis } from '../spectrum/emissions-analysis.ts';
 
 export interface PlannerRemote extends SweepRemote, EmissionsRemote {
   storeScan(request: StoreScanRequest): Promise<unknown>;
+  safetyChecks(request: SafetyRequest): Promise<unknown>;
 }
+
+export type SafetyState =
+  | { readonly status: 'running' }
+  | { readonly status: 'done'; readonly report: SafetyReport }
+  | { readonly status: 'error'; readonly message: string };
 
 export type SweepState =
   | { readonly status: 'running' }
@@ -39,6 +48,8 @@ export interface VariantResult {
   readonly noiseKey: string;
   readonly sweep: SweepState;
   readonly analysis: AnalysisState;
+  /** The safety and practical checks of the document (they do not depend on the noise). */
+  readonly safety: SafetyState;
   /**
    * The newest finished results of this variant, perhaps for an earlier document: what the page keeps
    * drawing while new ones are computed, so an edit never blanks or rebuilds a plot.
@@ -52,8 +63,11 @@ export type ScanSource = (scanId: string) => Scan | undefined;
 interface Slot {
   readonly sweep: SweepClient;
   readonly emissions: EmissionsClient;
+  readonly safety: NewestRequestQueue<SafetyOutcome>;
   result: VariantResult | undefined;
 }
+
+type SafetyOutcome = { readonly status: 'done'; readonly requestId: number; readonly report: SafetyReport } | { readonly status: 'refused'; readonly requestId: number; readonly message: string };
 
 /** How many results per variant are kept for documents no longer shown (undo finds them). */
 const KEPT_PER_VARIANT = 8;
@@ -90,6 +104,7 @@ export class PlannerResults {
       if (!workspace.variants.some((variant) => variant.id === id)) {
         this.slots.get(id)!.sweep.dispose();
         this.slots.get(id)!.emissions.dispose();
+        this.slots.get(id)!.safety.dispose();
         this.slots.delete(id);
         this.kept.delete(id);
       }
@@ -105,6 +120,7 @@ export class PlannerResults {
     for (const slot of this.slots.values()) {
       slot.sweep.dispose();
       slot.emissions.dispose();
+      slot.safety.dispose();
     }
     this.slots.clear();
   }
@@ -112,7 +128,12 @@ export class PlannerResults {
   private slotOf(variantId: string): Slot {
     let slot = this.slots.get(variantId);
     if (!slot) {
-      slot = { sweep: new SweepClient(this.remote), emissions: new EmissionsClient(this.remote), result: undefined };
+      slot = {
+        sweep: new SweepClient(this.remote),
+        emissions: new EmissionsClient(this.remote),
+        safety: new NewestRequestQueue<SafetyOutcome>('safety', (reason) => `the worker did not answer the safety checks: ${reason}`),
+        result: undefined,
+      };
       this.slots.set(variantId, slot);
     }
     return slot;
@@ -138,15 +159,18 @@ export class PlannerResults {
     if (cached && cached.sweep.status === 'done' && (cached.analysis.status === 'done' || cached.analysis.status === 'idle')) {
       slot.result = cached;
       this.onChange(variantId);
+      if (cached.safety.status === 'running') void this.runSafety(variantId, slot, document, noiseKey);
       return;
     }
     // The sweep is the same whatever the noise: keep it when only the noise changed.
     const sameDocument = current?.document === document;
     const sweep: SweepState = sameDocument && current.sweep.status === 'done' ? current.sweep : { status: 'running' };
     const shown = current?.shown ?? { sweep: undefined, analysis: undefined };
-    slot.result = { document, noiseKey, sweep, analysis: { status: 'running' }, shown: sweep.status === 'done' ? { ...shown, sweep: sweep.result } : shown };
+    const safety: SafetyState = sameDocument ? current.safety : { status: 'running' };
+    slot.result = { document, noiseKey, sweep, analysis: { status: 'running' }, safety, shown: sweep.status === 'done' ? { ...shown, sweep: sweep.result } : shown };
     this.onChange(variantId);
     if (sweep.status === 'running') void this.runSweep(variantId, slot, document, noiseKey, cacheKey);
+    if (safety.status === 'running') void this.runSafety(variantId, slot, document, noiseKey);
     void this.runAnalysis(variantId, slot, document, noise, noiseKey, cacheKey);
   }
 
@@ -157,6 +181,20 @@ export class PlannerResults {
     const shown = slot.result!.shown;
     slot.result = { ...slot.result!, sweep, shown: sweep.status === 'done' ? { ...shown, sweep: sweep.result } : shown };
     this.keep(variantId, cacheKey, slot.result);
+    this.onChange(variantId);
+  }
+
+  private async runSafety(variantId: string, slot: Slot, document: JsonObject, noiseKey: string): Promise<void> {
+    const outcome = await slot.safety.enqueue(async (requestId) => {
+      const reply = (await this.remote.safetyChecks({ requestId, design: document })) as { ok?: unknown; report?: SafetyReport; error?: { message?: unknown } };
+      return reply.ok === true && reply.report
+        ? { status: 'done' as const, requestId, report: reply.report }
+        : { status: 'refused' as const, requestId, message: typeof reply.error?.message === 'string' ? reply.error.message : 'the worker sent a malformed safety reply' };
+    });
+    if (outcome.status === 'superseded' || !this.isCurrent(slot, document, noiseKey)) return;
+    const safety: SafetyState =
+      outcome.status === 'done' ? { status: 'done', report: outcome.report } : { status: 'error', message: outcome.status === 'refused' ? outcome.message : outcome.error.message };
+    slot.result = { ...slot.result!, safety };
     this.onChange(variantId);
   }
 
@@ -190,6 +228,13 @@ export class PlannerResults {
     kept.delete(cacheKey);
     kept.set(cacheKey, result);
     while (kept.size > KEPT_PER_VARIANT) kept.delete(kept.keys().next().value!);
+  }
+
+  /** The noise as the worker's report request names it (a stored scan, or the estimate), or undefined when there is none. */
+  async reportNoise(document: JsonObject, noise: NoiseChoice): Promise<{ readonly kind: 'estimate' } | { readonly kind: 'stored-scan'; readonly scanId: string } | undefined> {
+    const request = await this.noiseRequest(document, noise);
+    if ('reason' in request || request.noise.kind === 'scan') return undefined;
+    return request.noise;
   }
 
   /** The noise to send, or why there is none to judge. */

@@ -4,6 +4,8 @@ import { type AnalysisOptions, analyzeEmissions, type EmissionsAnalysis, type No
 import { buildReportData, type ReportData } from './report-data.ts';
 import { type CsvFile, reportCsvFiles } from './report-csv.ts';
 import { renderReportHtml } from './report-html.ts';
+import { runSafetyChecks } from '../safety/index.ts';
+import { safetySection } from './safety-section.ts';
 import type { AssistantResults, ReportOrigin, ReportVariant, SafetyChecksSection } from './report-inputs.ts';
 
 /**
@@ -62,7 +64,8 @@ export function makeReport(request: ReportRequest): Report {
     design,
     sweep,
     ...(analysis ? { analysis } : { analysisAbsentReason: 'reason' in chosen ? chosen.reason : 'no analysis' }),
-    ...(request.safety ? { safety: request.safety } : {}),
+    // The safety checks always run (they are quick): the same in the page and on the command line.
+    safety: request.safety ?? safetySection(runSafetyChecks(design)),
     ...(request.assistants ? { assistants: request.assistants } : {}),
     ...(variants.length > 0 ? { variants } : {}),
     ...(request.designVariantName ? { designVariantName: request.designVariantName } : {}),

@@ -25,6 +25,7 @@ function countingRemote() {
     sweep: async (request) => ((calls.sweep += 1), sweepApi.sweep(request)),
     analyzeEmissions: async (request) => ((calls.analyze += 1), sweepApi.analyzeEmissions(request)),
     storeScan: async (request) => ((calls.store += 1), sweepApi.storeScan(request)),
+    safetyChecks: async (request) => sweepApi.safetyChecks(request),
   };
   return { remote, calls };
 }
@@ -34,7 +35,7 @@ async function settled(results: PlannerResults, ids: readonly string[]): Promise
   for (let i = 0; i < 200; i += 1) {
     const done = ids.every((id) => {
       const r = results.resultFor(id);
-      return r && r.sweep.status !== 'running' && r.analysis.status !== 'running';
+      return r && r.sweep.status !== 'running' && r.analysis.status !== 'running' && r.safety.status !== 'running';
     });
     if (done) return;
     await new Promise((resolve) => setTimeout(resolve, 5));
@@ -65,6 +66,9 @@ describe('results per variant', () => {
     expect(one.analysis.status).toBe('done');
     expect(calls.sweep).toBe(2);
     expect(changed).toContain(copy);
+    // And its safety checks, which say what they need (the demo gives no supply).
+    const safety = one.safety.status === 'done' ? one.safety.report : undefined;
+    expect(safety?.checks.find((c) => c.id === 'leakage')?.status).toBe('not-checked');
 
     // Nothing changed: nothing is asked of the worker again.
     results.update(store.workspace);

@@ -49,9 +49,11 @@ describe('history', () => {
     expect(await capacitance()).toBe('100 nF');
     await page.keyboard.press('Control+Shift+z');
     expect(await capacitance()).toBe('470n');
+    const saved = await savedRevision(page);
     await page.keyboard.press('Control+y');
     expect(await stageIds()).toEqual(['mains-side', 'converter-side']);
-    // The history outlives a reload.
+    // The history outlives a reload (once the last step is saved, which starts with the keystroke).
+    await expect.poll(() => savedRevision(page)).toBeGreaterThan(saved);
     await page.reload();
     await settle(page);
     await page.locator('chokepoint-planner').getByRole('button', { name: 'Undo' }).click();

@@ -35,7 +35,7 @@ import '../sweep/resonance-list.ts';
 import '../sweep/warning-list.ts';
 import { sharedStyles, themeTokens } from '../styles/theme.ts';
 import { INTENT_EVENT, type PlannerIntentEvent } from './intent-event.ts';
-import './safety-note.ts';
+import '../checks/safety-panel.ts';
 
 /**
  * The planner page. It holds the one store (the workspace of design variants and its history) and
@@ -239,6 +239,8 @@ export class ChokepointPlanner extends LitElement {
   @property({ attribute: false }) notices: readonly { readonly tone: 'info' | 'error'; readonly text: string; readonly details?: readonly string[] }[] = [];
   @property({ attribute: 'data-theme', reflect: true }) shownTheme: PlotTheme = 'light';
   @property({ attribute: false }) themeChoice: ThemeChoice = 'system';
+  /** Names for choices whose values are ids (listed leakage limits, discharge requirements), from the worker. */
+  @property({ attribute: false }) choiceLabels: ReadonlyMap<string, string> = new Map();
   /** The saving of the work, when the browser keeps it: its revision is what was last written. */
   autosave: { readonly revision: number } | undefined;
 
@@ -479,7 +481,10 @@ export class ChokepointPlanner extends LitElement {
               <summary>Noise source, LISNs and frequencies</summary>
               <chokepoint-circuit-settings .document=${active.document} .issues=${issues}></chokepoint-circuit-settings>
             </details>
-            <chokepoint-safety-note></chokepoint-safety-note>
+            <section class="panel" aria-labelledby="safety-title">
+              <h2 id="safety-title">Safety and practical checks</h2>
+              <chokepoint-safety-panel .state=${result?.safety} .document=${active.document} .issues=${issues} .choiceLabels=${this.choiceLabels}></chokepoint-safety-panel>
+            </section>
           </div>
           <div class="column" aria-label="Results">
             ${this.renderStatus(result)}

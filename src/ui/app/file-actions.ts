@@ -50,6 +50,7 @@ export class FileActions extends LitElement {
   @property({ attribute: false }) onOpenFile: ((file: File) => Promise<void>) | undefined;
   @property({ attribute: false }) onSave: (() => void) | undefined;
   @property({ attribute: false }) onCopyLink: (() => Promise<string>) | undefined;
+  @property({ attribute: false }) onReport: (() => Promise<string>) | undefined;
 
   @state() private said: string | undefined;
 
@@ -61,6 +62,7 @@ export class FileActions extends LitElement {
       </label>
       <button type="button" data-action="save-design" title="Save the design being edited as a .design.json file" @click=${() => this.onSave?.()}>Save file</button>
       <button type="button" data-action="copy-link" title="Copy a link that carries the design being edited" @click=${() => void this.copy()}>Copy link</button>
+      <button type="button" data-action="report" title="The printable hand-over report of the design being edited (an HTML file to print or keep)" @click=${() => void this.report()}>Report</button>
       ${this.said ? html`<span class="said" role="status">${this.said}</span>` : nothing}
     `;
   }
@@ -70,6 +72,11 @@ export class FileActions extends LitElement {
     const file = input.files?.[0];
     input.value = '';
     if (file) await this.onOpenFile?.(file);
+  }
+
+  private async report(): Promise<void> {
+    this.said = 'Making the report…';
+    this.said = this.onReport ? await this.onReport() : undefined;
   }
 
   private async copy(): Promise<void> {

@@ -16,7 +16,8 @@ import { formatIssue } from '../../model/validation-error.ts';
 import { asJson, isJsonObject, type JsonObject } from '../../planner/json.ts';
 import { PlannerStore } from '../../planner/planner-store.ts';
 import { checkDocument } from '../../planner/validation.ts';
-import { activeVariant, type ScanEntry, workspaceOf } from '../../planner/workspace.ts';
+import { activeVariant, type ScanEntry, variantName, workspaceOf } from '../../planner/workspace.ts';
+import packageJson from '../../../package.json';
 import type { Scan } from '../../spectrum/spectrum-types.ts';
 import type { SweepApi } from '../../../workers/sweep-api.ts';
 import type { ScanPanelHost } from '../emissions/scan-panel.ts';
@@ -34,6 +35,7 @@ import type { FileActions } from './file-actions.ts';
 type Notice = ChokepointPlanner['notices'][number];
 
 const THEME_KEY = 'chokepoint-theme';
+const PROGRAM_VERSION: string = packageJson.version;
 
 export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlanner> {
   const planner = document.createElement('chokepoint-planner');
@@ -255,6 +257,23 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
       return 'The browser did not allow copying; the address bar holds the same link.';
     }
   };
+  actions.onReport = async () => {
+    const workspace = store.workspace;
+    const active = activeVariant(workspace);
+    if (!active.validDocument) return 'The design has a value that needs a fix before a report can be made.';
+    const noise = await results.reportNoise(active.validDocument, workspace.noise);
+    const scan = workspace.noise.kind === 'scan' ? workspace.scans.find((s) => s.id === (workspace.noise as { scanId: string }).scanId) : undefined;
+    const reply = await remote.report({
+      design: active.validDocument,
+      ...(noise ? { noise } : {}),
+      variants: workspace.variants.filter((v) => v.id !== active.id && v.validDocument).map((v) => ({ variantId: v.id, name: variantName(v).slice(0, 200), design: v.validDocument })),
+      designVariantName: variantName(active).slice(0, 200),
+      origin: { version: PROGRAM_VERSION, generatedAt: `${new Date().toISOString().slice(0, 16)}Z`, ...(scan ? { scanFile: scan.name.slice(0, 300) } : {}) },
+    });
+    if (!reply.ok) return `No report: ${reply.error.message}`;
+    download(`${fileStem(active.validDocument)}.report.html`, 'text/html', reply.html);
+    return `Report saved (design hash ${reply.designHash.slice(0, 12)}…).`;
+  };
   planner.append(actions);
   planner.addEventListener('download-request', (event) => download(event.detail.fileName, event.detail.mimeType, event.detail.text));
   planner.addEventListener('dragover', (event) => {
@@ -272,6 +291,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   planner.themeChoice = ['system', 'light', 'dark'].includes(themeChoice) ? themeChoice : 'system';
   planner.addEventListener('theme-change', (event) => localStorage.setItem(THEME_KEY, (event as CustomEvent<{ choice: ThemeChoice }>).detail.choice));
 
+  void remote.safetyChoiceLabels().then((labels) => (planner.choiceLabels = new Map(Object.entries(labels))));
   planner.results = results;
   planner.scanHost = scanHost;
   planner.onExport = onExport;

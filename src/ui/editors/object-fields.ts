@@ -34,6 +34,8 @@ export class ObjectFields extends LitElement {
   @property({ attribute: false }) skip: readonly string[] = [];
   /** When set, only these fields, in this order. */
   @property({ attribute: false }) only: readonly string[] | undefined;
+  /** What to show for a choice's value where the value itself is an id (a listed limit), by value. */
+  @property({ attribute: false }) choiceLabels: ReadonlyMap<string, string> = new Map();
 
   override render() {
     if (!this.schema || !this.document) return nothing;
@@ -117,7 +119,8 @@ export class ObjectFields extends LitElement {
         const current = typeof raw === 'string' ? raw : field.presence.kind === 'default' ? String(field.presence.value) : '';
         return html`<select id=${id} aria-invalid=${invalid ? 'true' : 'false'} @change=${(event: Event) => this.set(path, (event.target as HTMLSelectElement).value)}>
           ${field.presence.kind === 'optional' ? html`<option value="" ?selected=${current === ''}>—</option>` : nothing}
-          ${type.values.map((value) => html`<option value=${value} ?selected=${value === current}>${kindText(value)}</option>`)}
+          ${field.presence.kind === 'required' && current === '' ? html`<option value="" selected disabled>choose…</option>` : nothing}
+          ${type.values.map((value) => html`<option value=${value} ?selected=${value === current}>${this.choiceLabels.get(value) ?? kindText(value)}</option>`)}
         </select>`;
       }
       case 'text': {
@@ -154,12 +157,12 @@ export class ObjectFields extends LitElement {
             }}
           >
             ${optional ? html`<option value="" ?selected=${shown === undefined}>none</option>` : nothing}
-            ${[...options.keys()].map((kind) => html`<option value=${kind} ?selected=${kind === shown}>${kindText(kind)}</option>`)}
+            ${[...options.keys()].map((kind) => html`<option value=${kind} ?selected=${kind === shown}>${this.choiceLabels.get(kind) ?? kindText(kind)}</option>`)}
           </select>
         </legend>
         ${problem ? html`<p class="field-error" role="alert">${problem}</p>` : nothing}
         ${schema && current !== undefined
-          ? html`<chokepoint-object-fields .document=${this.document} .path=${path} .schema=${schema} .issues=${this.issues}></chokepoint-object-fields>`
+          ? html`<chokepoint-object-fields .document=${this.document} .path=${path} .schema=${schema} .issues=${this.issues} .choiceLabels=${this.choiceLabels}></chokepoint-object-fields>`
           : nothing}
       </fieldset>
     `;
@@ -180,7 +183,7 @@ export class ObjectFields extends LitElement {
           ${fieldText(field.name)}
           ${optional ? html`<button type="button" class="link" @click=${() => this.set(path, undefined)}>remove</button>` : nothing}
         </legend>
-        <chokepoint-object-fields .document=${this.document} .path=${path} .schema=${schema} .issues=${this.issues}></chokepoint-object-fields>
+        <chokepoint-object-fields .document=${this.document} .path=${path} .schema=${schema} .issues=${this.issues} .choiceLabels=${this.choiceLabels}></chokepoint-object-fields>
       </fieldset>
     `;
   }

@@ -1,5 +1,8 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import '../../../src/ui/app/safety-note.ts';
+import '../../../src/ui/checks/safety-panel.ts';
+import demoDesign from '../../../fixtures/demo/adapter-two-stage.design.json';
+import { requireDesign } from '../../../src/model/read-design.ts';
+import { runSafetyChecks } from '../../../src/safety/index.ts';
 import '../../../src/ui/sweep/resonance-list.ts';
 import '../../../src/ui/sweep/warning-list.ts';
 import { syntheticSweep } from '../support/synthetic-sweep.ts';
@@ -49,15 +52,18 @@ describe('<chokepoint-warning-list>', () => {
   });
 });
 
-describe('<chokepoint-safety-note>', () => {
-  it('cautions about Y leakage, X discharge, safety-rated parts and local codes', async () => {
-    const note = document.createElement('chokepoint-safety-note');
-    document.body.append(note);
-    await note.updateComplete;
-    const text = note.shadowRoot?.textContent?.replace(/\s+/gu, ' ') ?? '';
-    expect(text).toContain('Y capacitors (line to protective earth) pass leakage current to earth');
-    expect(text).toContain('X capacitors (line to line) stay charged after unplugging: give them a discharge path');
-    expect(text).toContain('safety-rated X and Y capacitors');
-    expect(text).toContain('local electrical codes and licensed practice');
+describe('<chokepoint-safety-panel>', () => {
+  it('always cautions that the checks are planning aids; shows each check with its status and what a missing input needs', async () => {
+    const panel = document.createElement('chokepoint-safety-panel');
+    document.body.append(panel);
+    await panel.updateComplete;
+    expect(panel.shadowRoot?.textContent).toMatch(/planning aids, not a certification/u);
+    panel.state = { status: 'done', report: runSafetyChecks(requireDesign(demoDesign)) };
+    await panel.updateComplete;
+    const text = panel.shadowRoot?.textContent?.replace(/\s+/gu, ' ') ?? '';
+    expect(text).toContain('Leakage (touch) current');
+    expect(text).toMatch(/Give: operating\.supply/u);
+    expect(text).toMatch(/licensed practice/u);
+    expect(panel.shadowRoot?.querySelector('[data-check="leakage"] .badge')?.textContent).toBe('not checked');
   });
 });
