@@ -1,0 +1,5 @@
+import type { Command } from '../command.ts';
+import { diagnoseCommand } from './diagnose.ts';
+
+/** The design assistants' commands (docs/assistants.md), in the order the help lists them. */
+export const ASSIST_COMMANDS: readonly Command[] = [diagnoseCommand];

@@ -1,0 +1,95 @@
+import * as Comlink from 'comlink';
+import type { z } from 'zod';
+import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
+import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
+import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
+import { type Design, formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
+import { type AssistFailure, type AssistFailureKind, type AssistReply, diagnoseRequestSchema, type problemFields } from './assist-protocol.ts';
+import { collectTransferables } from './transferables.ts';
+
+/**
+ * The object the assistants' worker exposes (workers/assist.worker.ts). Every method validates its
+ * request, runs the assistant in slices so that `cancel(requestId)` is heard while it runs, reports
+ * progress through the optional callback (pass it wrapped in Comlink.proxy), and answers with a
+ * reply, never a throw. It holds no DOM; tests call it directly or over a MessageChannel.
+ */
+
+export type ProgressCallback = (progress: AssistProgress) => void;
+
+const cancelled = new Set<number>();
+const running = new Set<number>();
+
+/** A zero-delay timer: lets the worker read a cancel message between slices of work. */
+const yieldToEventLoop = (): Promise<void> => new Promise((resolve) => setTimeout(resolve, 0));
+
+type ProblemRequest = z.output<z.ZodObject<typeof problemFields>>;
+
+async function runAssistant<Request extends ProblemRequest, T>(
+  schema: z.ZodType<Request>,
+  request: unknown,
+  onProgress: ProgressCallback | undefined,
+  start: (parsed: Request, design: Design, problem: AssistProblem) => Steps<T>,
+): Promise<AssistReply<T>> {
+  const started = performance.now();
+  const parsed = schema.safeParse(request, { reportInput: true });
+  if (!parsed.success) return failure(salvageRequestId(request), 'invalid-request', 'invalid assistant request', parsed.error.issues.map(toValidationIssue));
+  const data = parsed.data;
+  const read = readDesign(data.design);
+  if (!read.ok) return failure(data.requestId, 'invalid-design', 'invalid design', read.error.issues);
+  let problem: AssistProblem;
+  try {
+    const judging = data.judging ?? {};
+    problem = assistProblem(read.value, data.noise, judging);
+  } catch (cause) {
+    if (cause instanceof AssistInputError) return failure(data.requestId, 'unusable-input', cause.message, []);
+    throw cause;
+  }
+  return await drive(data.requestId, started, onProgress, () => start(data, read.value, problem));
+}
+
+/** Run an assistant's steps cooperatively, turning its end (result, cancel, defect) into a reply. */
+export async function drive<T>(requestId: number, started: number, onProgress: ProgressCallback | undefined, steps: () => Steps<T>): Promise<AssistReply<T>> {
+  running.add(requestId);
+  try {
+    const result = await runStepsCooperatively(steps(), {
+      yieldToEventLoop,
+      isCancelled: () => cancelled.has(requestId),
+      ...(onProgress ? { onProgress: (progress: AssistProgress) => void onProgress(progress) } : {}),
+    });
+    const reply = { ok: true as const, requestId, result, elapsedMs: performance.now() - started };
+    return Comlink.transfer(reply, collectTransferables(result));
+  } catch (cause) {
+    if (cause instanceof AssistCancelled) return failure(requestId, 'cancelled', 'cancelled', []);
+    if (cause instanceof AssistInputError || cause instanceof RangeError) return failure(requestId, 'unusable-input', cause.message, []);
+    const message = cause instanceof Error ? cause.message : String(cause);
+    return failure(requestId, 'engine-failure', `the assistant failed: ${message}`, []);
+  } finally {
+    running.delete(requestId);
+    cancelled.delete(requestId);
+  }
+}
+
+export const assistApi = {
+  /** Which mode limits each range short of the target, what is missing per mode, and whether more CM inductance helps. */
+  diagnose(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<LimitingModeReport>> {
+    return runAssistant(diagnoseRequestSchema, request, onProgress, (_parsed, _design, problem) => limitingMode(problem));
+  },
+
+  /** Stop a running request: it ends with `{ ok: false, error: { kind: 'cancelled' } }`. Unknown ids are ignored. */
+  cancel(requestId: number): void {
+    if (running.has(requestId)) cancelled.add(requestId);
+  },
+};
+
+export type AssistApi = typeof assistApi;
+
+export function failure(requestId: number | null, kind: AssistFailureKind, what: string, issues: readonly ValidationIssue[]): AssistFailure {
+  const detail = issues.map(formatIssue).join('; ');
+  return { ok: false, requestId, error: { kind, message: detail === '' ? what : `${what}: ${detail}`, issues } };
+}
+
+function salvageRequestId(request: unknown): number | null {
+  if (typeof request !== 'object' || request === null) return null;
+  const id = (request as { requestId?: unknown }).requestId;
+  return typeof id === 'number' && Number.isInteger(id) && id >= 0 ? id : null;
+}
