@@ -1,10 +1,14 @@
 import * as Comlink from 'comlink';
 import type { z } from 'zod';
+import type { ValueTarget } from '../src/assist/design-edit/part-values.ts';
 import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
+import { defaultTargets } from '../src/assist/sizing/default-targets.ts';
+import { sizePart, type SizingOptions, type SizingResult } from '../src/assist/sizing/size-part.ts';
+import { yCapacitance, type YCapacitanceResult } from '../src/assist/sizing/y-capacitance.ts';
 import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
 import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
 import { type Design, formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
-import { type AssistFailure, type AssistFailureKind, type AssistReply, diagnoseRequestSchema, type problemFields } from './assist-protocol.ts';
+import { type AssistFailure, type AssistFailureKind, type AssistReply, diagnoseRequestSchema, type problemFields, sizeRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
 import { collectTransferables } from './transferables.ts';
 
 /**
@@ -75,6 +79,23 @@ export const assistApi = {
     return runAssistant(diagnoseRequestSchema, request, onProgress, (_parsed, _design, problem) => limitingMode(problem));
   },
 
+  /** The smallest value of one part (or of every CM choke, DM inductance and X capacitor) that keeps the target margin. */
+  size(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<SizingResult[]>> {
+    return runAssistant(sizeRequestSchema, request, onProgress, (parsed, design, problem) => sizeAll(problem, parsed.target ? [parsed.target] : defaultTargets(design), parsed));
+  },
+
+  /** The largest Y capacitance a leakage-current limit allows, and the margin with the Y capacitors at it. */
+  yCapacitance(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<YCapacitanceResult>> {
+    return runAssistant(yCapacitanceRequestSchema, request, onProgress, (parsed, _design, problem) =>
+      yCapacitance(problem, {
+        leakageLimitA: parsed.leakageLimitA,
+        ...(parsed.lineVoltageV === undefined ? {} : { lineVoltageV: parsed.lineVoltageV }),
+        ...(parsed.lineFrequencyHz === undefined ? {} : { lineFrequencyHz: parsed.lineFrequencyHz }),
+        ...(parsed.tolerance === undefined ? {} : { tolerance: parsed.tolerance }),
+      }),
+    );
+  },
+
   /** Stop a running request: it ends with `{ ok: false, error: { kind: 'cancelled' } }`. Unknown ids are ignored. */
   cancel(requestId: number): void {
     if (running.has(requestId)) cancelled.add(requestId);
@@ -82,6 +103,12 @@ export const assistApi = {
 };
 
 export type AssistApi = typeof assistApi;
+
+function* sizeAll(problem: AssistProblem, targets: readonly ValueTarget[], options: SizingOptions): Steps<SizingResult[]> {
+  const results: SizingResult[] = [];
+  for (const target of targets) results.push(yield* sizePart(problem, target, options));
+  return results;
+}
 
 export function failure(requestId: number | null, kind: AssistFailureKind, what: string, issues: readonly ValidationIssue[]): AssistFailure {
   const detail = issues.map(formatIssue).join('; ');

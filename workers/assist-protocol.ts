@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { VALUE_QUANTITIES } from '../src/assist/design-edit/part-values.ts';
+import { PREFERRED_SERIES_NAMES, type PreferredSeries } from '../src/assist/sizing/preferred-values.ts';
 import { ATTRIBUTIONS, limitMaskSchema } from '../src/model/emissions-schema.ts';
 import type { ValidationIssue } from '../src/model/index.ts';
 import { scanSchema } from './emissions-protocol.ts';
@@ -64,3 +66,31 @@ export interface AssistSuccess<T> {
 }
 
 export type AssistReply<T> = AssistSuccess<T> | AssistFailure;
+
+const valueTargetSchema = z.strictObject({
+  elementIds: z.array(z.string().min(1).max(64)).min(1).max(16),
+  quantity: z.enum(VALUE_QUANTITIES),
+});
+
+export const scalingSchema = z
+  .strictObject({ windingCapacitance: z.enum(['keep', 'scale-with-turns']), leakage: z.enum(['fixed-fraction', 'fixed-value']) })
+  .optional();
+
+export const sizeRequestSchema = z.strictObject({
+  ...problemFields,
+  /** The part (or parts moved together) to size; absent: every CM choke, DM inductance and X capacitor. */
+  target: valueTargetSchema.optional(),
+  scaling: scalingSchema,
+  series: z.enum(PREFERRED_SERIES_NAMES as [PreferredSeries, ...PreferredSeries[]]).optional(),
+  rangeFactor: z.number().min(1.5).max(1e4).optional(),
+});
+export type SizeRequest = z.input<typeof sizeRequestSchema>;
+
+export const yCapacitanceRequestSchema = z.strictObject({
+  ...problemFields,
+  leakageLimitA: z.number().positive().max(1),
+  lineVoltageV: z.number().positive().max(1e4).optional(),
+  lineFrequencyHz: z.number().positive().max(1e4).optional(),
+  tolerance: z.number().min(0).max(0.9).optional(),
+});
+export type YCapacitanceRequest = z.input<typeof yCapacitanceRequestSchema>;

@@ -72,3 +72,21 @@ describe('over a MessageChannel, as the page calls it', () => {
     expect(again.ok).toBe(true);
   });
 });
+
+describe('sizing through the worker API', () => {
+  it('sizes one part and answers the Y limit', async () => {
+    const reply = await assistApi.size({ requestId: 20, design: demoInput, noise: { kind: 'estimate' }, target: { elementIds: ['CX2'], quantity: 'capacitance' }, series: 'E24' });
+    if (!reply.ok) throw new Error(reply.error.message);
+    expect(reply.result).toHaveLength(1);
+    expect(reply.result[0]!.curve.value).toBeInstanceOf(Float64Array);
+    const y = await assistApi.yCapacitance({ requestId: 21, design: demoInput, noise: { kind: 'estimate' }, leakageLimitA: 0.75e-3, lineVoltageV: 250, lineFrequencyHz: 50, tolerance: 0 });
+    if (!y.ok) throw new Error(y.error.message);
+    expect(y.result.maximumPerLineF * 1e9).toBeCloseTo(9.5493, 4);
+  });
+
+  it('refuses a quantity the part does not have', async () => {
+    const reply = await assistApi.size({ requestId: 22, design: demoInput, noise: { kind: 'estimate' }, target: { elementIds: ['CX2'], quantity: 'leakage' } });
+    expect(reply.ok).toBe(false);
+    if (!reply.ok) expect(reply.error.kind).toBe('unusable-input');
+  });
+});

@@ -1,5 +1,6 @@
 import type { Command } from '../command.ts';
 import { diagnoseCommand } from './diagnose.ts';
+import { sizeCommand } from './size.ts';
 
 /** The design assistants' commands (docs/assistants.md), in the order the help lists them. */
-export const ASSIST_COMMANDS: readonly Command[] = [diagnoseCommand];
+export const ASSIST_COMMANDS: readonly Command[] = [diagnoseCommand, sizeCommand];
