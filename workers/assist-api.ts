@@ -1,6 +1,8 @@
 import * as Comlink from 'comlink';
 import type { z } from 'zod';
+import { type DampingReport, suggestDamping } from '../src/assist/damping/suggest-damping.ts';
 import type { ValueTarget } from '../src/assist/design-edit/part-values.ts';
+import { findResonances, type ResonanceReport } from '../src/assist/resonance/resonances.ts';
 import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
 import { defaultTargets } from '../src/assist/sizing/default-targets.ts';
 import { sizePart, type SizingOptions, type SizingResult } from '../src/assist/sizing/size-part.ts';
@@ -8,7 +10,7 @@ import { yCapacitance, type YCapacitanceResult } from '../src/assist/sizing/y-ca
 import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
 import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
 import { type Design, formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
-import { type AssistFailure, type AssistFailureKind, type AssistReply, diagnoseRequestSchema, type problemFields, sizeRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
+import { type AssistFailure, type AssistFailureKind, type AssistReply, dampRequestSchema, diagnoseRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
 import { collectTransferables } from './transferables.ts';
 
 /**
@@ -49,6 +51,21 @@ async function runAssistant<Request extends ProblemRequest, T>(
     throw cause;
   }
   return await drive(data.requestId, started, onProgress, () => start(data, read.value, problem));
+}
+
+/** An assistant that needs only a design (and reads anything else itself). */
+async function runDesignAssistant<Request extends { requestId: number; design: unknown }, T>(
+  schema: z.ZodType<Request>,
+  request: unknown,
+  onProgress: ProgressCallback | undefined,
+  start: (parsed: Request, design: Design) => Steps<T>,
+): Promise<AssistReply<T>> {
+  const started = performance.now();
+  const parsed = schema.safeParse(request, { reportInput: true });
+  if (!parsed.success) return failure(salvageRequestId(request), 'invalid-request', 'invalid assistant request', parsed.error.issues.map(toValidationIssue));
+  const read = readDesign(parsed.data.design);
+  if (!read.ok) return failure(parsed.data.requestId, 'invalid-design', 'invalid design', read.error.issues);
+  return await drive(parsed.data.requestId, started, onProgress, () => start(parsed.data, read.value));
 }
 
 /** Run an assistant's steps cooperatively, turning its end (result, cancel, defect) into a reply. */
@@ -94,6 +111,29 @@ export const assistApi = {
         ...(parsed.tolerance === undefined ? {} : { tolerance: parsed.tolerance }),
       }),
     );
+  },
+
+  /** Every resonance in circuit: part self-resonances and filter resonances with the parts behind them. */
+  resonances(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<ResonanceReport>> {
+    return runDesignAssistant(resonancesRequestSchema, request, onProgress, (parsed, design) =>
+      findResonances(design, parsed.minimumDepthDb === undefined ? {} : { minimumDepthDb: parsed.minimumDepthDb }),
+    );
+  },
+
+  /** A damping leg for one DM resonance; `result.suggestion.design` is the new variant. */
+  damp(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<DampingReport>> {
+    return runDesignAssistant(dampRequestSchema, request, onProgress, (parsed, design) => {
+      const problem = parsed.noise ? assistProblem(design, parsed.noise, parsed.judging ?? {}) : undefined;
+      return suggestDamping(
+        design,
+        {
+          ...(parsed.leg ? { leg: parsed.leg } : {}),
+          ...(parsed.ratio === undefined ? {} : { ratio: parsed.ratio }),
+          ...(parsed.resonanceHz === undefined ? {} : { resonanceHz: parsed.resonanceHz }),
+        },
+        problem,
+      );
+    });
   },
 
   /** Stop a running request: it ends with `{ ok: false, error: { kind: 'cancelled' } }`. Unknown ids are ignored. */

@@ -94,3 +94,22 @@ export const yCapacitanceRequestSchema = z.strictObject({
   tolerance: z.number().min(0).max(0.9).optional(),
 });
 export type YCapacitanceRequest = z.input<typeof yCapacitanceRequestSchema>;
+
+export const resonancesRequestSchema = z.strictObject({
+  requestId,
+  design: z.unknown(),
+  minimumDepthDb: z.number().min(0).max(60).optional(),
+});
+export type ResonancesRequest = z.input<typeof resonancesRequestSchema>;
+
+export const dampRequestSchema = z.strictObject({
+  requestId,
+  design: z.unknown(),
+  /** Optional: with noise, the resonance nearest the worst margin is damped and the margin given before and after. */
+  noise: assistNoiseSchema.optional(),
+  judging: judgingSchema,
+  leg: z.enum(['parallel-rc', 'series-rl']).optional(),
+  ratio: z.number().min(0.05).max(100).optional(),
+  resonanceHz: z.number().positive().optional(),
+});
+export type DampRequest = z.input<typeof dampRequestSchema>;

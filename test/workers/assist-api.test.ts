@@ -90,3 +90,16 @@ describe('sizing through the worker API', () => {
     if (!reply.ok) expect(reply.error.kind).toBe('unusable-input');
   });
 });
+
+describe('resonances and damping through the worker API', () => {
+  it('returns the resonances and a damped variant that validates as a design', async () => {
+    const list = await assistApi.resonances({ requestId: 30, design: demoInput });
+    if (!list.ok) throw new Error(list.error.message);
+    expect(list.result.filter.length).toBeGreaterThan(0);
+    const reply = await assistApi.damp({ requestId: 31, design: demoInput, noise: scanNoise(), ratio: 2 });
+    if (!reply.ok) throw new Error(reply.error.message);
+    const { readDesign } = await import('../../src/model/index.ts');
+    expect(readDesign(JSON.parse(JSON.stringify(reply.result.suggestion!.design))).ok).toBe(true);
+    expect(reply.result.suggestion!.marginAfterDb!).toBeGreaterThan(6);
+  });
+});
