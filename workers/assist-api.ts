@@ -6,11 +6,12 @@ import { findResonances, type ResonanceReport } from '../src/assist/resonance/re
 import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
 import { defaultTargets } from '../src/assist/sizing/default-targets.ts';
 import { sizePart, type SizingOptions, type SizingResult } from '../src/assist/sizing/size-part.ts';
+import { converterStability, type StabilityResult } from '../src/assist/stability/stability.ts';
 import { yCapacitance, type YCapacitanceResult } from '../src/assist/sizing/y-capacitance.ts';
 import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
 import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
 import { type Design, formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
-import { type AssistFailure, type AssistFailureKind, type AssistReply, dampRequestSchema, diagnoseRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
+import { type AssistFailure, type AssistFailureKind, type AssistReply, dampRequestSchema, diagnoseRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
 import { collectTransferables } from './transferables.ts';
 
 /**
@@ -134,6 +135,18 @@ export const assistApi = {
         problem,
       );
     });
+  },
+
+  /** Middlebrook's criterion: the filter's DM output impedance against the converter's −V²/P. */
+  stability(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<StabilityResult>> {
+    return runDesignAssistant(stabilityRequestSchema, request, onProgress, (parsed, design) =>
+      converterStability(design, {
+        ...(parsed.lowestInputVoltageV === undefined ? {} : { lowestInputVoltageV: parsed.lowestInputVoltageV }),
+        ...(parsed.highestInputPowerW === undefined ? {} : { highestInputPowerW: parsed.highestInputPowerW }),
+        ...(parsed.requiredMarginDb === undefined ? {} : { requiredMarginDb: parsed.requiredMarginDb }),
+        ...(parsed.upToHz === undefined ? {} : { upToHz: parsed.upToHz }),
+      }),
+    );
   },
 
   /** Stop a running request: it ends with `{ ok: false, error: { kind: 'cancelled' } }`. Unknown ids are ignored. */

@@ -113,3 +113,13 @@ export const dampRequestSchema = z.strictObject({
   resonanceHz: z.number().positive().optional(),
 });
 export type DampRequest = z.input<typeof dampRequestSchema>;
+
+export const stabilityRequestSchema = z.strictObject({
+  requestId,
+  design: z.unknown(),
+  lowestInputVoltageV: z.number().positive().max(1e5).optional(),
+  highestInputPowerW: z.number().positive().max(1e7).optional(),
+  requiredMarginDb: z.number().min(0).max(60).optional(),
+  upToHz: z.number().positive().optional(),
+});
+export type StabilityRequest = z.input<typeof stabilityRequestSchema>;

@@ -103,3 +103,15 @@ describe('resonances and damping through the worker API', () => {
     expect(reply.result.suggestion!.marginAfterDb!).toBeGreaterThan(6);
   });
 });
+
+describe('stability through the worker API', () => {
+  it('judges the demo behind a 127 V, 90 W converter given in the request, and refuses without one', async () => {
+    const reply = await assistApi.stability({ requestId: 40, design: demoInput, lowestInputVoltageV: 127, highestInputPowerW: 90 });
+    if (!reply.ok) throw new Error(reply.error.message);
+    expect(reply.result.negativeResistanceOhm).toBeCloseTo(-(127 * 127) / 90, 9);
+    expect(reply.result.marginDb).toBeInstanceOf(Float64Array);
+    const refused = await assistApi.stability({ requestId: 41, design: demoInput });
+    expect(refused.ok).toBe(false);
+    if (!refused.ok) expect(refused.error.kind).toBe('unusable-input');
+  });
+});

@@ -2,6 +2,7 @@ import type { Command } from '../command.ts';
 import { dampCommand } from './damp.ts';
 import { diagnoseCommand } from './diagnose.ts';
 import { sizeCommand } from './size.ts';
+import { stabilityCommand } from './stability.ts';
 
 /** The design assistants' commands (docs/assistants.md), in the order the help lists them. */
-export const ASSIST_COMMANDS: readonly Command[] = [diagnoseCommand, sizeCommand, dampCommand];
+export const ASSIST_COMMANDS: readonly Command[] = [diagnoseCommand, sizeCommand, dampCommand, stabilityCommand];
