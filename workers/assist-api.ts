@@ -4,14 +4,17 @@ import { type DampingReport, suggestDamping } from '../src/assist/damping/sugges
 import type { ValueTarget } from '../src/assist/design-edit/part-values.ts';
 import { findResonances, type ResonanceReport } from '../src/assist/resonance/resonances.ts';
 import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
+import type { ChunkRange, SplitChunk, SplitResult } from '../src/assist/pool/split-jobs.ts';
 import { defaultTargets } from '../src/assist/sizing/default-targets.ts';
 import { sizePart, type SizingOptions, type SizingResult } from '../src/assist/sizing/size-part.ts';
 import { converterStability, type StabilityResult } from '../src/assist/stability/stability.ts';
 import { yCapacitance, type YCapacitanceResult } from '../src/assist/sizing/y-capacitance.ts';
 import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
 import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
-import { type Design, formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
-import { type AssistFailure, type AssistFailureKind, type AssistReply, dampRequestSchema, diagnoseRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
+import { type Design, readDesign, toValidationIssue } from '../src/model/index.ts';
+import { type AssistReply, dampRequestSchema, diagnoseRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
+import { failure } from './assist-failure.ts';
+import { createSplitHost, type HostReply } from './split-host.ts';
 import { collectTransferables } from './transferables.ts';
 
 /**
@@ -24,6 +27,7 @@ import { collectTransferables } from './transferables.ts';
 export type ProgressCallback = (progress: AssistProgress) => void;
 
 const cancelled = new Set<number>();
+const host = createSplitHost();
 const running = new Set<number>();
 
 /** A zero-delay timer: lets the worker read a cancel message between slices of work. */
@@ -149,6 +153,26 @@ export const assistApi = {
     );
   },
 
+  /**
+   * The pool's side of split work (a tolerance-yield run, a two-value map), driven by
+   * src/client/worker-pool.ts: prepare the job in this worker (validated like any request) and get
+   * its chunk ranges; run chunks; merge the chunks (in any worker that prepared it); release it.
+   */
+  prepareSplit(jobId: number, request: unknown): HostReply<{ readonly ranges: readonly ChunkRange[] }> {
+    return host.prepare(jobId, request);
+  },
+  runSplitChunk(jobId: number, range: unknown): HostReply<SplitChunk> {
+    const reply = host.run(jobId, range);
+    return reply.ok ? Comlink.transfer(reply, collectTransferables(reply.value)) : reply;
+  },
+  mergeSplit(jobId: number, chunks: unknown): HostReply<SplitResult> {
+    const reply = host.merge(jobId, chunks);
+    return reply.ok ? Comlink.transfer(reply, collectTransferables(reply.value)) : reply;
+  },
+  releaseSplit(jobId: number): void {
+    host.release(jobId);
+  },
+
   /** Stop a running request: it ends with `{ ok: false, error: { kind: 'cancelled' } }`. Unknown ids are ignored. */
   cancel(requestId: number): void {
     if (running.has(requestId)) cancelled.add(requestId);
@@ -163,10 +187,6 @@ function* sizeAll(problem: AssistProblem, targets: readonly ValueTarget[], optio
   return results;
 }
 
-export function failure(requestId: number | null, kind: AssistFailureKind, what: string, issues: readonly ValidationIssue[]): AssistFailure {
-  const detail = issues.map(formatIssue).join('; ');
-  return { ok: false, requestId, error: { kind, message: detail === '' ? what : `${what}: ${detail}`, issues } };
-}
 
 function salvageRequestId(request: unknown): number | null {
   if (typeof request !== 'object' || request === null) return null;

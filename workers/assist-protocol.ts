@@ -123,3 +123,56 @@ export const stabilityRequestSchema = z.strictObject({
   upToHz: z.number().positive().optional(),
 });
 export type StabilityRequest = z.input<typeof stabilityRequestSchema>;
+
+const float64Array = z.custom<Float64Array>((value) => value instanceof Float64Array, { message: 'expected a Float64Array' });
+const float32Array = z.custom<Float32Array>((value) => value instanceof Float32Array, { message: 'expected a Float32Array' });
+
+export const yieldSettingsSchema = z
+  .strictObject({
+    samples: z.number().int().min(1).max(100_000).optional(),
+    seed: z.number().int().min(0).max(2 ** 31 - 1).optional(),
+    useDefaults: z.boolean().optional(),
+    permeabilityBand: z.strictObject({ lowPercent: z.number().min(-90).max(0), highPercent: z.number().min(0).max(200) }).optional(),
+  })
+  .default({});
+
+const mapAxisSchema = z.strictObject({
+  target: valueTargetSchema,
+  fromValue: z.number().positive(),
+  toValue: z.number().positive(),
+  steps: z.number().int().min(2).max(400).optional(),
+});
+
+export const mapSettingsSchema = z.strictObject({
+  x: mapAxisSchema,
+  y: mapAxisSchema,
+  scaling: scalingSchema,
+  leakage: z
+    .strictObject({ leakageLimitA: z.number().positive().max(1), lineVoltageV: z.number().positive(), lineFrequencyHz: z.number().positive(), tolerance: z.number().min(0).max(0.9) })
+    .optional(),
+});
+
+/** Work split over the pool: a tolerance-yield run or a two-value map. The pool validates it in every worker. */
+export const splitRequestSchema = z.discriminatedUnion('kind', [
+  z.strictObject({ kind: z.literal('yield'), ...problemFields, settings: yieldSettingsSchema }),
+  z.strictObject({ kind: z.literal('map'), ...problemFields, settings: mapSettingsSchema }),
+]);
+export type SplitRequest = z.input<typeof splitRequestSchema>;
+export type YieldRequest = Omit<Extract<SplitRequest, { kind: 'yield' }>, 'kind'>;
+export type MapRequest = Omit<Extract<SplitRequest, { kind: 'map' }>, 'kind'>;
+
+export const chunkRangeSchema = z.strictObject({ start: z.number().int().nonnegative(), count: z.number().int().positive().max(100_000) });
+
+/** Chunks on their way back to a worker for the merge. */
+export const splitChunksSchema = z.array(
+  z.discriminatedUnion('kind', [
+    z.strictObject({
+      kind: z.literal('yield'),
+      chunk: z.strictObject({ start: z.number().int().nonnegative(), count: z.number().int().positive(), worstMarginDb: float64Array, factors: float64Array, binMarginDb: float32Array }),
+    }),
+    z.strictObject({
+      kind: z.literal('map'),
+      chunk: z.strictObject({ start: z.number().int().nonnegative(), count: z.number().int().positive(), worstMarginDb: float64Array, worstFrequencyHz: float64Array }),
+    }),
+  ]),
+);
