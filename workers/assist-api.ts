@@ -5,6 +5,7 @@ import type { ValueTarget } from '../src/assist/design-edit/part-values.ts';
 import { findResonances, type ResonanceReport } from '../src/assist/resonance/resonances.ts';
 import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
 import type { ChunkRange, SplitChunk, SplitResult } from '../src/assist/pool/split-jobs.ts';
+import { mapCellDesign, type MapSettings } from '../src/assist/value-map/value-map.ts';
 import { defaultTargets } from '../src/assist/sizing/default-targets.ts';
 import { sizePart, type SizingOptions, type SizingResult } from '../src/assist/sizing/size-part.ts';
 import { converterStability, type StabilityResult } from '../src/assist/stability/stability.ts';
@@ -12,7 +13,7 @@ import { yCapacitance, type YCapacitanceResult } from '../src/assist/sizing/y-ca
 import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
 import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
 import { type Design, readDesign, toValidationIssue } from '../src/model/index.ts';
-import { type AssistReply, dampRequestSchema, diagnoseRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
+import { type AssistReply, dampRequestSchema, diagnoseRequestSchema, mapCellRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
 import { failure } from './assist-failure.ts';
 import { createSplitHost, type HostReply } from './split-host.ts';
 import { collectTransferables } from './transferables.ts';
@@ -173,6 +174,11 @@ export const assistApi = {
     host.release(jobId);
   },
 
+  /** The design at one cell of a two-value map: apply it as a new variant. */
+  mapCell(request: unknown): Promise<AssistReply<Design>> {
+    return runDesignAssistant(mapCellRequestSchema, request, undefined, (parsed, design) => cellSteps(design, parsed.settings as MapSettings, parsed.x, parsed.y));
+  },
+
   /** Stop a running request: it ends with `{ ok: false, error: { kind: 'cancelled' } }`. Unknown ids are ignored. */
   cancel(requestId: number): void {
     if (running.has(requestId)) cancelled.add(requestId);
@@ -180,6 +186,13 @@ export const assistApi = {
 };
 
 export type AssistApi = typeof assistApi;
+
+// eslint-disable-next-line require-yield -- one step, but driven like every other assistant
+function* cellSteps(design: Design, settings: MapSettings, x: number, y: number): Steps<Design> {
+  const cell = mapCellDesign(design, settings, x, y);
+  if (!cell) throw new AssistInputError('those values make no valid part');
+  return cell;
+}
 
 function* sizeAll(problem: AssistProblem, targets: readonly ValueTarget[], options: SizingOptions): Steps<SizingResult[]> {
   const results: SizingResult[] = [];

@@ -176,3 +176,12 @@ export const splitChunksSchema = z.array(
     }),
   ]),
 );
+
+export const mapCellRequestSchema = z.strictObject({
+  requestId,
+  design: z.unknown(),
+  settings: mapSettingsSchema,
+  x: z.number().positive(),
+  y: z.number().positive(),
+});
+export type MapCellRequest = z.input<typeof mapCellRequestSchema>;

@@ -69,3 +69,35 @@ describe('the worker pool', () => {
     if (outcome.status === 'error') expect(outcome.error.message).toMatch(/settings\.samples/u);
   });
 });
+
+describe('the two-value map on the pool', () => {
+  it('maps on two workers as on one, and a cell comes back as a design', async () => {
+    const cleanups: (() => void)[] = [];
+    const make = (size: number): WorkerPool => {
+      const transport = channelWorkers();
+      const created = new WorkerPool(transport.create, size);
+      cleanups.push(() => {
+        created.dispose();
+        transport.close();
+      });
+      return created;
+    };
+    try {
+    const settings = {
+      x: { target: { elementIds: ['CX2'], quantity: 'capacitance' as const }, fromValue: 0.47e-6, toValue: 4.7e-6, steps: 6 },
+      y: { target: { elementIds: ['CX3'], quantity: 'capacitance' as const }, fromValue: 10e-9, toValue: 470e-9, steps: 5 },
+    };
+    const request = { requestId: 3, design: demoInput, noise: { kind: 'estimate' as const }, settings };
+    const one = await make(1).runMap(request);
+    const pool = make(2);
+    const two = await pool.runMap(request);
+    if (one.status !== 'done' || two.status !== 'done') throw new Error('a map did not finish');
+    expect(Array.from(two.result.worstMarginDb)).toEqual(Array.from(one.result.worstMarginDb));
+    const cell = await pool.single().mapCell({ requestId: 4, design: demoInput, settings, x: 2.2e-6, y: 100e-9 });
+    if (!cell.ok) throw new Error(cell.error.message);
+    expect(cell.result.stages[1]!.elements.find((e) => e.id === 'CX2')!.part).toMatchObject({ capacitance: 2.2e-6 });
+    } finally {
+      for (const cleanup of cleanups) cleanup();
+    }
+  });
+});
