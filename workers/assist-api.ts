@@ -6,6 +6,7 @@ import { findResonances, type ResonanceReport } from '../src/assist/resonance/re
 import { limitingMode, type LimitingModeReport } from '../src/assist/limiting-mode/limiting-mode.ts';
 import type { ChunkRange, SplitChunk, SplitResult } from '../src/assist/pool/split-jobs.ts';
 import { mapCellDesign, type MapSettings } from '../src/assist/value-map/value-map.ts';
+import { proposeFilters, type ProposalReport } from '../src/assist/proposal/propose.ts';
 import { defaultTargets } from '../src/assist/sizing/default-targets.ts';
 import { sizePart, type SizingOptions, type SizingResult } from '../src/assist/sizing/size-part.ts';
 import { converterStability, type StabilityResult } from '../src/assist/stability/stability.ts';
@@ -13,7 +14,7 @@ import { yCapacitance, type YCapacitanceResult } from '../src/assist/sizing/y-ca
 import { AssistInputError, type AssistProblem, assistProblem } from '../src/assist/margin/assist-problem.ts';
 import { AssistCancelled, type AssistProgress, runStepsCooperatively, type Steps } from '../src/assist/run/steps.ts';
 import { type Design, readDesign, toValidationIssue } from '../src/model/index.ts';
-import { type AssistReply, dampRequestSchema, diagnoseRequestSchema, mapCellRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
+import { type AssistReply, dampRequestSchema, diagnoseRequestSchema, mapCellRequestSchema, proposeRequestSchema, type problemFields, resonancesRequestSchema, sizeRequestSchema, stabilityRequestSchema, yCapacitanceRequestSchema } from './assist-protocol.ts';
 import { failure } from './assist-failure.ts';
 import { createSplitHost, type HostReply } from './split-host.ts';
 import { collectTransferables } from './transferables.ts';
@@ -172,6 +173,19 @@ export const assistApi = {
   },
   releaseSplit(jobId: number): void {
     host.release(jobId);
+  },
+
+  /** Up to three proposed filters with the least total inductance; each `design` is a new variant. */
+  propose(request: unknown, onProgress?: ProgressCallback): Promise<AssistReply<ProposalReport>> {
+    return runAssistant(proposeRequestSchema, request, onProgress, (parsed, _design, problem) =>
+      proposeFilters(problem, {
+        ...(parsed.leakage ? { leakage: parsed.leakage } : {}),
+        ...(parsed.maxStages === undefined ? {} : { maxStages: parsed.maxStages }),
+        ...(parsed.converter ? { converter: parsed.converter } : {}),
+        ...(parsed.series ? { series: parsed.series } : {}),
+        ...(parsed.fixed ? { fixed: parsed.fixed } : {}),
+      }),
+    );
   },
 
   /** The design at one cell of a two-value map: apply it as a new variant. */

@@ -185,3 +185,15 @@ export const mapCellRequestSchema = z.strictObject({
   y: z.number().positive(),
 });
 export type MapCellRequest = z.input<typeof mapCellRequestSchema>;
+
+export const proposeRequestSchema = z.strictObject({
+  ...problemFields,
+  leakage: z
+    .strictObject({ leakageLimitA: z.number().positive().max(1), lineVoltageV: z.number().positive(), lineFrequencyHz: z.number().positive(), tolerance: z.number().min(0).max(0.9).optional() })
+    .optional(),
+  maxStages: z.number().int().min(1).max(3).optional(),
+  converter: z.strictObject({ lowestInputVoltageV: z.number().positive(), highestInputPowerW: z.number().positive(), stabilityMarginDb: z.number().min(0).max(60).optional() }).optional(),
+  series: z.enum(PREFERRED_SERIES_NAMES as [PreferredSeries, ...PreferredSeries[]]).optional(),
+  fixed: z.strictObject({ chokeInductanceH: z.number().positive().optional(), xCapacitanceF: z.number().positive().optional(), yCapacitanceF: z.number().positive().optional() }).optional(),
+});
+export type ProposeRequest = z.input<typeof proposeRequestSchema>;

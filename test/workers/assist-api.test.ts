@@ -115,3 +115,17 @@ describe('stability through the worker API', () => {
     if (!refused.ok) expect(refused.error.kind).toBe('unusable-input');
   });
 });
+
+describe('a proposal through the worker API', () => {
+  it('proposes for the demo from its estimate, with progress', async () => {
+    const progress: number[] = [];
+    const reply = await assistApi.propose(
+      { requestId: 50, design: demoInput, noise: { kind: 'estimate' }, maxStages: 1, leakage: { leakageLimitA: 0.75e-3, lineVoltageV: 264, lineFrequencyHz: 60 } },
+      (p) => progress.push(p.done),
+    );
+    if (!reply.ok) throw new Error(reply.error.message);
+    expect(reply.result.evaluations).toBeGreaterThan(5);
+    expect(progress.length).toBeGreaterThan(0);
+    for (const proposal of reply.result.proposals) expect(proposal.stages).toBe(1);
+  });
+});
