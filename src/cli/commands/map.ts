@@ -100,6 +100,7 @@ async function runMap(args: ParsedArgs, context: CommandContext): Promise<number
   }
   const settings: MapSettings = { x, y, ...(leakage ? { leakage } : {}) };
   const problem = await readAssistProblem(args, context, design, NAME);
+  const started = Date.now();
   const runner: SplitRunner | undefined = workers > 1 && context.io.splitRunner ? context.io.splitRunner(workers) : undefined;
   let result: MapResult;
   try {
@@ -121,6 +122,7 @@ async function runMap(args: ParsedArgs, context: CommandContext): Promise<number
   } finally {
     runner?.close();
   }
+  const elapsedMs = Date.now() - started;
   if (cellText !== undefined && variant !== undefined) {
     const [ix, iy, ...rest] = cellText.split(',').map((s) => Number(s.trim()));
     const nx = result.xValues.length;
@@ -133,7 +135,7 @@ async function runMap(args: ParsedArgs, context: CommandContext): Promise<number
     await writeOutput(context, variant, `${JSON.stringify({ ...cell, name: `${design.name} (map cell ${ix},${iy})` }, null, 2)}\n`);
     tell(context, `wrote the design at cell ${ix},${iy} to ${variant}`);
   }
-  const text = args.flag('json') ? `${JSON.stringify({ design: design.name, ...result }, jsonReplacer)}\n` : mapText(design.name, result);
+  const text = args.flag('json') ? `${JSON.stringify({ design: design.name, workers: runner?.workerCount ?? 1, elapsedMs, ...result }, jsonReplacer)}\n` : mapText(design.name, result);
   await writeOutput(context, args.value('out'), text);
   return ExitCode.Ok;
 }

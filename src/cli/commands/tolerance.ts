@@ -56,6 +56,7 @@ async function runTolerance(args: ParsedArgs, context: CommandContext): Promise<
   const design = await loadDesign(context, args.positionals[0]!);
   const problem = await readAssistProblem(args, context, design, NAME);
 
+  const started = Date.now();
   const runner: SplitRunner | undefined = workers > 1 && context.io.splitRunner ? context.io.splitRunner(workers) : undefined;
   let result: YieldResult;
   try {
@@ -77,11 +78,12 @@ async function runTolerance(args: ParsedArgs, context: CommandContext): Promise<
   } finally {
     runner?.close();
   }
+  const elapsedMs = Date.now() - started;
   if (result.judgedSamples === 0) throw new CliError('nothing was judged in any unit (no limit covers the noise inside the bands): no yield to give', [], ExitCode.NotPassed);
   const pass = result.yieldFraction >= requiredYield;
   tell(context, `${samples} units on ${runner ? runner.workerCount : 1} thread${runner && runner.workerCount > 1 ? 's' : ''}`);
   const text = args.flag('json')
-    ? `${JSON.stringify({ design: design.name, requiredYield, pass, ...result }, jsonReplacer)}\n`
+    ? `${JSON.stringify({ design: design.name, requiredYield, pass, workers: runner?.workerCount ?? 1, elapsedMs, ...result }, jsonReplacer)}\n`
     : toleranceText(design.name, result, requiredYield, pass);
   await writeOutput(context, args.value('out'), text);
   return pass ? ExitCode.Ok : ExitCode.NotPassed;
