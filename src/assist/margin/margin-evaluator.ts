@@ -66,7 +66,7 @@ export interface MarginOutcome {
   readonly bandWorstDb: Float64Array;
   /** Per comparison, limit − predicted level over its points; NaN where no limit applies or at the floor. */
   readonly marginDb: readonly Float64Array[];
-  /** Scans only: 20·log10 |T_baseline / T_new| per evaluated point, per mode (dB). */
+  /** Scans only: 20·log10 |T_baseline / T_new| per evaluated point, per mode (dB); NaN at the noise floor. */
   readonly improvementCmDb: Float64Array | undefined;
   readonly improvementDmDb: Float64Array | undefined;
   /** Estimate only: peak volts at each receiver from each mode's source, per evaluated point. */
@@ -304,6 +304,13 @@ function scanEvaluator(problem: AssistProblem, scans: readonly Scan[]): MarginEv
         const chosen = segment.mode ?? attribution;
         for (let i = 0; i < segment.count; i += 1) {
           const k = segment.offset + i;
+          // The receiver's floor carries no margin: skip its logarithms (most of a line scan's points).
+          if (segment.belowFloor[i]) {
+            improvementCmDb[k] = Number.NaN;
+            improvementDmDb[k] = Number.NaN;
+            applied[k] = Number.NaN;
+            continue;
+          }
           const cm = ratioDb(segment.baseCm2[i]!, magnitudeSquared(response.cmFromCm, k));
           const dm = ratioDb(segment.baseDm2[i]!, magnitudeSquared(response.dmFromDm, k));
           improvementCmDb[k] = cm;

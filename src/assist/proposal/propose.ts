@@ -3,7 +3,7 @@ import { AssistInputError, type AssistProblem } from '../margin/assist-problem.t
 import { compileMarginEvaluator } from '../margin/margin-evaluator.ts';
 import { ProgressCounter, type Steps } from '../run/steps.ts';
 import { maximumYCapacitance } from '../sizing/leakage-limit.ts';
-import { PREFERRED_SERIES, type PreferredSeries, snapDown } from '../sizing/preferred-values.ts';
+import { PREFERRED_SERIES, type PreferredSeries, snapDown, snapUp } from '../sizing/preferred-values.ts';
 import { converterStability, type StabilityResult } from '../stability/stability.ts';
 
 /**
@@ -132,7 +132,7 @@ function inductorPart(inductance: number): FilterElement['part'] {
 const element = (id: string, placement: FilterElement['placement'], part: FilterElement['part'], label: string): FilterElement => ({ id, label, placement, enabled: true, part });
 
 /** The stages of a topology with its values, converter side first. */
-function buildStages(topology: Topology, chokeH: number, xF: number, yF: number): { stages: Stage[]; parts: ProposedPart[] } {
+function buildStages(topology: Topology, chokeH: number, xF: number, yF: number, series: PreferredSeries): { stages: Stage[]; parts: ProposedPart[] } {
   const parts: ProposedPart[] = [];
   const stages: Stage[] = [];
   for (let s = 1; s <= topology.stages; s += 1) {
@@ -141,7 +141,7 @@ function buildStages(topology: Topology, chokeH: number, xF: number, yF: number)
       elements.push(element('CX1', 'line-to-line', capacitorPart(xF, 'X'), 'CX1 X2'));
       parts.push({ elementId: 'CX1', role: 'X capacitor', value: xF, unit: 'F' });
       if (topology.dmInductors) {
-        const dm = DM_INDUCTANCE_RATIO * chokeH;
+        const dm = snapUp(DM_INDUCTANCE_RATIO * chokeH, series);
         elements.push(element('LD1', 'series-line1', inductorPart(dm), 'LD1 line 1'), element('LD2', 'series-line2', inductorPart(dm), 'LD2 line 2'));
         parts.push({ elementId: 'LD1', role: 'DM inductor', value: dm, unit: 'H' }, { elementId: 'LD2', role: 'DM inductor', value: dm, unit: 'H' });
       }
@@ -181,7 +181,7 @@ export function* proposeFilters(problem: AssistProblem, constraints: ProposalCon
   let evaluations = 0;
 
   const judge = (topology: Topology, chokeH: number, xF: number): { marginDb: number; worstFrequencyHz: number; pass: boolean } => {
-    const { stages } = buildStages(topology, chokeH, xF, yF);
+    const { stages } = buildStages(topology, chokeH, xF, yF, series);
     const outcome = evaluator.evaluate({ ...problem.design, stages });
     evaluations += 1;
     return { marginDb: outcome.worstMarginDb, worstFrequencyHz: outcome.worstFrequencyHz, pass: evaluator.meetsTarget(outcome) };
@@ -222,7 +222,7 @@ export function* proposeFilters(problem: AssistProblem, constraints: ProposalCon
       start = high;
       const chokeH = lValues[high]!;
       const chokes = topology.stages * chokeH;
-      const dm = topology.dmInductors ? 2 * DM_INDUCTANCE_RATIO * chokeH : 0;
+      const dm = topology.dmInductors ? 2 * snapUp(DM_INDUCTANCE_RATIO * chokeH, series) : 0;
       found.push({
         topology,
         chokeH,
@@ -242,7 +242,7 @@ export function* proposeFilters(problem: AssistProblem, constraints: ProposalCon
   for (const topology of tops) {
     progress.enter('checking the best of each topology');
     for (const candidate of best.get(topology.id) ?? []) {
-      const { stages, parts } = buildStages(topology, candidate.chokeH, candidate.xF, yF);
+      const { stages, parts } = buildStages(topology, candidate.chokeH, candidate.xF, yF, series);
       const design: Design = { ...problem.design, name: `${problem.design.name} (proposed: ${topology.id})`, stages };
       let stability: StabilityResult | undefined;
       if (constraints.converter) {
