@@ -152,22 +152,22 @@ if (!isMainThread && workerData === POOL_ROLE) {
     parentPort!.postMessage({ id: message.id, reply }, reply.ok ? collectTransferables(reply.value) : []);
   });
 } else {
-const io: CliIo = {
-  readFile: async (path, maxBytes) => {
-    if (maxBytes !== undefined) {
-      const { size } = await stat(path);
-      if (size > maxBytes) throw Object.assign(new Error(`${path} holds ${size} bytes`), { code: 'EFBIG', size });
-    }
-    return readFile(path);
-  },
-  writeTextFile: (path, text) => writeFile(path, text, 'utf8'),
-  writeChunks,
-  stdout: writer(process.stdout, true),
-  stderr: writer(process.stderr, false),
-  version,
-  splitRunner: threadRunner,
-  cores: availableParallelism(),
-};
+  const io: CliIo = {
+    readFile: async (path, maxBytes) => {
+      if (maxBytes !== undefined) {
+        const { size } = await stat(path);
+        if (size > maxBytes) throw Object.assign(new Error(`${path} holds ${size} bytes`), { code: 'EFBIG', size });
+      }
+      return readFile(path);
+    },
+    writeTextFile: (path, text) => writeFile(path, text, 'utf8'),
+    writeChunks,
+    stdout: writer(process.stdout, true),
+    stderr: writer(process.stderr, false),
+    version,
+    splitRunner: threadRunner,
+    cores: availableParallelism(),
+  };
 
-process.exitCode = await runCli(process.argv.slice(2), io);
+  process.exitCode = await runCli(process.argv.slice(2), io);
 }

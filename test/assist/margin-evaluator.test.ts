@@ -42,3 +42,18 @@ describe('the assistants judge a design exactly as the check command does', () =
     expect(outcome.worstMarginDb).toBeCloseTo(Math.min(...analysis.report.bands.filter((b) => b.worst).map((b) => b.worst!.marginDb)), 9);
   });
 });
+
+describe('a pass needs evidence (src/spectrum/verdict.ts), for the assistants as for check', () => {
+  it('a band the scan does not reach makes every candidate fail, and says why', () => {
+    const design = demoDesign();
+    const scan = demoScan();
+    const withBand = { ...design, emissions: { ...design.emissions!, bands: [...(design.emissions!.bands ?? []), { name: '30–40 MHz', startHz: 30e6, stopHz: 40e6 }] } };
+    const problem = assistProblem(withBand, { kind: 'scans', scans: [scan] }, { targetMarginDb: 3 });
+    const evaluator = compileMarginEvaluator(problem);
+    expect(evaluator.coverage.uncoveredBands).toEqual(['30–40 MHz']);
+    const outcome = evaluator.evaluate(withBand);
+    expect(outcome.worstMarginDb).toBeGreaterThan(3);
+    expect(evaluator.meetsTarget(outcome)).toBe(false);
+    expect(analyzeEmissions(withBand, { kind: 'scan', scan }, { targetMarginDb: 3 }).report.pass).toBe(false);
+  });
+});

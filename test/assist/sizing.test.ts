@@ -62,8 +62,9 @@ function lcProblemDesign(extra: { esl?: number } = {}): Design {
   });
   return { ...base, emissions: { masks: [mask], targetMarginDb: TARGET, attribution: 'both', bands: [{ name: 'all', startHz: 150e3, stopHz: 30e6 }], baseline: { kind: 'none' } } };
 }
+/** Noise at one frequency, and quiet points at the band's edges so that the scan covers the band (a pass needs evidence). */
 function dmScan(frequencyHz: number, levelDbuV: number): Scan {
-  return { name: 'test', tag: 'differential-mode', frequencyHz: Float64Array.of(frequencyHz), traces: [{ detector: 'peak', levelDbuV: Float64Array.of(levelDbuV) }], rejected: [], notes: [] };
+  return { name: 'test', tag: 'differential-mode', frequencyHz: Float64Array.of(150e3, frequencyHz, 30e6), traces: [{ detector: 'peak', levelDbuV: Float64Array.of(0, levelDbuV, 0) }], rejected: [], notes: [] };
 }
 
 /**

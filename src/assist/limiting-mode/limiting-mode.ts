@@ -130,7 +130,7 @@ export function* limitingMode(problem: AssistProblem): Steps<LimitingModeReport>
     probeMargins.push(perFactor);
   }
 
-  const scanModes = problem.noise.kind === 'scans' ? problem.noise.scans.map((scan) => (scan.tag === 'common-mode' || scan.tag === 'differential-mode' ? scan.tag : undefined)) : [];
+  const scanModes = evaluator.segments.map((segment) => (segment.tag === 'common-mode' || segment.tag === 'differential-mode' ? segment.tag : undefined));
   const ranges: ProblemRange[] = runs.map((run, r) => {
     const marginDb = lowestIn(envelope, run);
     const f = evaluator.frequencyHz;
@@ -192,6 +192,7 @@ export function* limitingMode(problem: AssistProblem): Steps<LimitingModeReport>
     return { ...range, summary: summarize(range, problem.targetMarginDb) };
   });
   if (chokes.length === 0) notes.push('the design has no common-mode choke: the CM inductance probe was not run');
+  for (const reason of evaluator.coverage.reasons) notes.push(`${reason}: the check command cannot pass any filter until this band is covered`);
   if (problem.noise.kind === 'scans' && scanModes.some((m) => m === undefined)) {
     notes.push(
       'a line scan cannot be split into modes (|V1| fits any ratio of CM to DM): each range is judged with the noise taken as all CM and as all DM; the mode with the lower margin is the one the filter does least for there',

@@ -20,14 +20,7 @@ export function envelopeMargin(evaluator: MarginEvaluator, outcome: MarginOutcom
 
 /** Where one scan's points start and end in the evaluated grid (an estimate is one segment). */
 export function gridSegments(evaluator: MarginEvaluator): { offset: number; count: number }[] {
-  const noise = evaluator.problem.noise;
-  if (noise.kind === 'estimate') return [{ offset: 0, count: evaluator.frequencyHz.length }];
-  let offset = 0;
-  return noise.scans.map((scan) => {
-    const segment = { offset, count: scan.frequencyHz.length };
-    offset += scan.frequencyHz.length;
-    return segment;
-  });
+  return evaluator.segments.map((segment) => ({ offset: segment.offset, count: segment.count }));
 }
 
 /** A run of judged points below a threshold, in one segment of the grid. */

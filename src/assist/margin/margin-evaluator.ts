@@ -13,7 +13,10 @@ import type { Attribution, Detector } from '../../model/emissions-schema.ts';
 import { compareToMasks, type LevelSeries } from '../../spectrum/margin.ts';
 import { estimateEmfs, estimateNoiseSource } from '../../spectrum/noise-estimate.ts';
 import { baselineDesign } from '../../spectrum/prediction.ts';
-import { receiverViewInto } from '../../spectrum/receiver-view.ts';
+import { analyzeEmissions } from '../../spectrum/emissions-analysis.ts';
+import { maskCorners } from '../../spectrum/limit-mask.ts';
+import { BAND_B_START_HZ, BAND_B_STOP_HZ, receiverViewInto } from '../../spectrum/receiver-view.ts';
+import { reduceScan } from '../../spectrum/scan-reduction.ts';
 import type { Scan, ScanTag } from '../../spectrum/spectrum-types.ts';
 import type { AssistProblem } from './assist-problem.ts';
 
@@ -85,12 +88,20 @@ export interface MarginEvaluator {
   /** Every frequency the noise is known at (scans one after another, or the estimate's harmonics). */
   readonly frequencyHz: Float64Array;
   readonly comparisons: readonly ComparisonInfo[];
+  /** Where each scan's points lie in the grid (after the reduction to the receiver's resolution); the estimate is one segment. */
+  readonly segments: readonly { readonly offset: number; readonly count: number; readonly tag: ScanTag | 'estimate' }[];
   /**
    * The margin of a candidate (same noise source and receivers as the problem's design; any
    * filter). The returned arrays are scratch, overwritten by the next call: copy what you keep.
    */
   evaluate(candidate: Design, attribution?: Attribution): MarginOutcome;
-  /** The target margin met at every judged point (and something judged). */
+  /**
+   * What no filter can change: the bands the noise does not cover (no judged point, or the points stop
+   * short of an edge, as the check command decides it; src/spectrum/verdict.ts). With any band not
+   * covered, no candidate passes: a pass needs evidence.
+   */
+  readonly coverage: { readonly uncoveredBands: readonly string[]; readonly reasons: readonly string[] };
+  /** The check command's pass: every band covered, and the target margin met at every judged point. */
   meetsTarget(outcome: MarginOutcome): boolean;
 }
 
@@ -115,7 +126,31 @@ interface ScanSegment {
 }
 
 export function compileMarginEvaluator(problem: AssistProblem): MarginEvaluator {
-  return problem.noise.kind === 'scans' ? scanEvaluator(problem, problem.noise.scans) : estimateEvaluator(problem);
+  if (problem.noise.kind === 'estimate') return estimateEvaluator(problem, coverageOf(problem, [{ kind: 'estimate' }]));
+  // The check command judges a scan at the receiver's resolution (scan-reduction.ts): the same points here.
+  const edges = [BAND_B_START_HZ, BAND_B_STOP_HZ, ...problem.bands.flatMap((band) => [band.startHz, band.stopHz]), ...problem.masks.flatMap((mask) => [...maskCorners(mask)])];
+  const scans = problem.noise.scans.map((scan) => reduceScan(scan, edges).scan);
+  return scanEvaluator(problem, scans, coverageOf(problem, scans.map((scan) => ({ kind: 'scan' as const, scan }))));
+}
+
+/** Band coverage as the check command judges it, once per noise input (it does not depend on the filter). */
+function coverageOf(problem: AssistProblem, inputs: readonly ({ kind: 'estimate' } | { kind: 'scan'; scan: Scan })[]): MarginEvaluator['coverage'] {
+  const uncovered = new Set<string>();
+  const reasons: string[] = [];
+  for (const input of inputs) {
+    const analysis = analyzeEmissions(problem.design, input, {
+      masks: problem.masks,
+      targetMarginDb: problem.targetMarginDb,
+      attribution: problem.attribution,
+      ...(problem.noiseFloorDbuV === undefined ? {} : { noiseFloorDbuV: problem.noiseFloorDbuV }),
+    });
+    for (const item of analysis.report.verdict.items) {
+      if (item.status !== 'not-covered') continue;
+      uncovered.add(item.name);
+      reasons.push(`${item.name}: not covered: ${item.reason}`);
+    }
+  }
+  return { uncoveredBands: [...uncovered], reasons };
 }
 
 /** One engine pass per candidate, reusing a workspace for every candidate of one topology. */
@@ -248,7 +283,7 @@ function summarize(
   return { judged, worstMarginDb: judged ? worst : Number.NaN, worstFrequencyHz, worstComparison };
 }
 
-function scanEvaluator(problem: AssistProblem, scans: readonly Scan[]): MarginEvaluator {
+function scanEvaluator(problem: AssistProblem, scans: readonly Scan[], coverage: MarginEvaluator['coverage']): MarginEvaluator {
   const total = scans.reduce((sum, scan) => sum + scan.frequencyHz.length, 0);
   const frequencyHz = new Float64Array(total);
   const segments: ScanSegment[] = [];
@@ -298,6 +333,7 @@ function scanEvaluator(problem: AssistProblem, scans: readonly Scan[]): MarginEv
     problem,
     frequencyHz,
     comparisons,
+    segments: segments.map((segment) => ({ offset: segment.offset, count: segment.count, tag: segment.scan.tag })),
     evaluate(candidate, attribution = problem.attribution) {
       const response = runner.run(candidate);
       for (const segment of segments) {
@@ -337,7 +373,8 @@ function scanEvaluator(problem: AssistProblem, scans: readonly Scan[]): MarginEv
         estimateLines: undefined,
       };
     },
-    meetsTarget: (outcome) => outcome.judged && outcome.worstMarginDb >= problem.targetMarginDb,
+    coverage,
+    meetsTarget: (outcome) => coverage.uncoveredBands.length === 0 && outcome.judged && outcome.worstMarginDb >= problem.targetMarginDb,
   };
 }
 
@@ -353,7 +390,7 @@ function floorMask(scan: Scan, floor: number | undefined): Uint8Array {
   return below;
 }
 
-function estimateEvaluator(problem: AssistProblem): MarginEvaluator {
+function estimateEvaluator(problem: AssistProblem, coverage: MarginEvaluator['coverage']): MarginEvaluator {
   const estimate = problem.design.emissions!.estimate!;
   const emfs = estimateEmfs(estimate, { stopHz: problem.design.frequencyPlan.stopHz });
   const frequencyHz = emfs.frequencyHz;
@@ -390,6 +427,7 @@ function estimateEvaluator(problem: AssistProblem): MarginEvaluator {
     problem,
     frequencyHz,
     comparisons,
+    segments: [{ offset: 0, count: n, tag: 'estimate' }],
     evaluate(candidate) {
       if (n > 0) {
         const response = runner.run(candidate);
@@ -421,6 +459,7 @@ function estimateEvaluator(problem: AssistProblem): MarginEvaluator {
         estimateLines: lines,
       };
     },
-    meetsTarget: (outcome) => outcome.judged && outcome.worstMarginDb >= problem.targetMarginDb,
+    coverage,
+    meetsTarget: (outcome) => coverage.uncoveredBands.length === 0 && outcome.judged && outcome.worstMarginDb >= problem.targetMarginDb,
   };
 }

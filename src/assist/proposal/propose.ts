@@ -162,7 +162,7 @@ export function* proposeFilters(problem: AssistProblem, constraints: ProposalCon
   if (!(Number.isInteger(maxStages) && maxStages >= 1 && maxStages <= 3)) throw new AssistInputError('the number of stages is 1, 2 or 3');
   const series = constraints.series ?? 'E6';
   const evaluator = compileMarginEvaluator(problem);
-  const notes: string[] = [];
+  const notes: string[] = evaluator.coverage.reasons.map((reason) => `${reason}: no filter can pass until this band is covered`);
 
   let yF: number;
   if (constraints.fixed?.yCapacitanceF !== undefined) yF = constraints.fixed.yCapacitanceF;

@@ -118,7 +118,8 @@ export function* sizeWithEvaluator(evaluator: MarginEvaluator, design: Design, t
     judged.push(sized);
     return sized;
   };
-  const passes = (sized: SizedValue): boolean => sized.marginDb >= problem.targetMarginDb;
+  const covered = evaluator.coverage.uncoveredBands.length === 0;
+  const passes = (sized: SizedValue): boolean => covered && sized.marginDb >= problem.targetMarginDb;
 
   const presentSized = judge(present);
   yield progress.step();
@@ -134,8 +135,8 @@ export function* sizeWithEvaluator(evaluator: MarginEvaluator, design: Design, t
   }
 
   const passingRanges = rangesOf(curve, problem.targetMarginDb);
-  const notes: string[] = [];
-  const first = Array.from(curve.worstMarginDb).findIndex((m) => m >= problem.targetMarginDb);
+  const notes: string[] = evaluator.coverage.reasons.map((reason) => `${reason}: no value can pass until this band is covered`);
+  const first = covered ? Array.from(curve.worstMarginDb).findIndex((m) => m >= problem.targetMarginDb) : -1;
   let answer: SizedValue | undefined;
   let preferred: SizingResult['preferred'];
   let noSolution: NoSolution | undefined;

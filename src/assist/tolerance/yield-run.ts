@@ -183,10 +183,11 @@ export function mergeYield(context: YieldContext, chunks: readonly YieldChunk[])
   const target = problem.targetMarginDb;
   let judgedSamples = 0;
   let passingSamples = 0;
+  const covered = evaluator.coverage.uncoveredBands.length === 0;
   for (const m of worst) {
     if (Number.isNaN(m)) continue;
     judgedSamples += 1;
-    if (m >= target) passingSamples += 1;
+    if (covered && m >= target) passingSamples += 1;
   }
   const sorted = Array.from(worst).filter((m) => !Number.isNaN(m)).sort((a, b) => a - b);
   const pick = (p: number): number => (sorted.length === 0 ? Number.NaN : sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil(p * sorted.length) - 1))]!);
@@ -233,6 +234,7 @@ export function mergeYield(context: YieldContext, chunks: readonly YieldChunk[])
     notes: [
       `${samples} samples, seed ${context.seed}; each part's value drawn from its own tolerance (the design's, or the default for its kind), magnetic parts also over their permeability band with one temperature per sample`,
       'the 5th-percentile curve is taken per frequency bin, each sample contributing its lowest margin in the bin; the level shown is against the tightest limit in the bin',
+      ...evaluator.coverage.reasons.map((reason) => `${reason}: no unit passes until this band is covered`),
     ],
   };
 }

@@ -30,7 +30,7 @@ export const dampCommand: Command = {
     ...OUTPUT_OPTIONS,
   ],
   examples: [
-    { command: `chokepoint damp ${DEMO_DESIGN} --scan ${DEMO_SCAN} --scan-tag line1 --variant damped.design.json`, description: 'damp the demo’s fourth-harmonic resonance and save the variant' },
+    { command: `chokepoint damp ${DEMO_DESIGN} --scan ${DEMO_SCAN} --scan-tag line1 --variant out/damped.design.json`, description: 'damp the demo’s fourth-harmonic resonance and save the variant' },
     { command: `chokepoint damp ${DEMO_DESIGN} --leg rl --ratio 1 --at 280kHz --json`, description: 'a series R–L leg instead' },
   ],
   run: runDamp,

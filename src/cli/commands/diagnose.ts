@@ -29,7 +29,7 @@ async function runDiagnose(args: ParsedArgs, context: CommandContext): Promise<n
   const design = await loadDesign(context, args.positionals[0]!);
   const problem = await readAssistProblem(args, context, design, 'diagnose');
   const report = runSteps(limitingMode(problem));
-  if (!report.judged) throw new CliError('nothing was judged: no limit covers the noise inside the bands, so there is no verdict to explain', [], ExitCode.NotPassed);
+  if (!report.judged) throw new CliError('nothing was judged: no limit covers the noise inside the bands, so there is no verdict to explain');
   const text = args.flag('json') ? `${JSON.stringify({ design: design.name, ...report }, jsonReplacer)}\n` : diagnosisText(design.name, report);
   await writeOutput(context, args.value('out'), text);
   return report.ranges.length === 0 ? ExitCode.Ok : ExitCode.NotPassed;

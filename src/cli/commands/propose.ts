@@ -52,7 +52,7 @@ export const proposeCommand: Command = {
   ],
   examples: [
     { command: `chokepoint propose ${DEMO_DESIGN} --scan ${DEMO_SCAN} --scan-tag line1 --leakage-limit 0.75mA --line-voltage 264V --line-frequency 60Hz`, description: 'filters for the demo’s scan, Y bounded by 0.75 mA' },
-    { command: `chokepoint propose fixtures/assist/invented-dc-input-converter.design.json --estimate --fixed-y 4.7nF --variant proposed.design.json`, description: 'behind the example’s 36 V, 50 W converter, kept stable' },
+    { command: `chokepoint propose fixtures/assist/invented-dc-input-converter.design.json --estimate --fixed-y 4.7nF --variant out/proposed.design.json`, description: 'behind the example’s 36 V, 50 W converter, kept stable' },
   ],
   run: runPropose,
 };
