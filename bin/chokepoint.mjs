@@ -9,7 +9,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 const root = dirname(dirname(fileURLToPath(import.meta.url)));
 const outDir = join(root, 'dist-cli');
 const output = join(outDir, 'chokepoint.mjs');
-const buildInputs = ['src', 'package.json', 'package-lock.json', 'vite.cli.config.ts'].map((name) => join(root, name));
+const buildInputs = ['src', 'workers', 'package.json', 'package-lock.json', 'vite.cli.config.ts'].map((name) => join(root, name));
 
 /** Newest modification time of a file or of anything in a folder (folders count: a deleted file changes its folder). */
 function newestChange(path) {

@@ -17,7 +17,7 @@ const MAX_TRACES = 8;
 // Typed as the Scan's own columns (any buffer), checked as a Float64Array of this realm.
 const float64 = z.custom<Float64Array>((value) => value instanceof Float64Array, { message: 'expected a Float64Array' });
 
-const scanSchema = z
+export const scanSchema = z
   .strictObject({
     name: z.string().min(1).max(300),
     tag: z.enum(SCAN_TAGS),

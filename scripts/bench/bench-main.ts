@@ -1,4 +1,5 @@
 import type { BenchSection, Figure } from './bench-section.ts';
+import { assistantsSection } from './sections/assistants.ts';
 import { drawingReportSection } from './sections/drawing-report.ts';
 import { kernelSection } from './sections/kernel.ts';
 import { plannerPageSection } from './sections/planner-page.ts';
@@ -9,7 +10,7 @@ import { scanImportSection } from './sections/scan-import.ts';
  * one section per area (scripts/bench/sections/). A table for people, or with --json one flat JSON
  * object for comparing two versions key by key (DEVELOPERS.md, "Reading the benchmark").
  */
-const SECTIONS: readonly BenchSection[] = [kernelSection, drawingReportSection, scanImportSection, plannerPageSection];
+const SECTIONS: readonly BenchSection[] = [kernelSection, drawingReportSection, scanImportSection, assistantsSection, plannerPageSection];
 
 const args = process.argv.slice(2);
 const asJson = args.includes('--json');

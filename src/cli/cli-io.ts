@@ -1,3 +1,5 @@
+import type { SplitRunner } from '../assist/pool/split-jobs.ts';
+
 /**
  * Everything the command line needs from its surroundings, injected so that the commands run the
  * same in Node (src/cli/node-main.ts) and in tests (a fake that keeps files in a Map).
@@ -24,6 +26,13 @@ export interface CliIo {
   stderr(text: string): void;
   /** The tool's version ("0.1.0"). */
   readonly version: string;
+  /**
+   * Worker threads for the assistants' split work (tolerance yield, maps), `workers` of them; absent
+   * (tests, or a host without threads), the work runs in this thread with the same result.
+   */
+  readonly splitRunner?: (workers: number) => SplitRunner;
+  /** Cores available, for the default number of workers (1 when absent). */
+  readonly cores?: number;
 }
 
 const FILE_ERRORS: Readonly<Record<string, string>> = {

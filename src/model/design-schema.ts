@@ -166,6 +166,24 @@ export const partSchema = z.discriminatedUnion('kind', [
   commonModeChokeSchema,
 ]);
 
+/**
+ * A part's manufacturing tolerance for the yield assistant (version 2): ± percent of its main value,
+ * spread uniformly or normally (±percent as 3σ), and for magnetic parts the band the permeability
+ * moves over the operating temperature. docs/assistants.md gives the defaults by part kind.
+ */
+export const toleranceSchema = z
+  .strictObject({
+    percent: z.number().min(0, 'a tolerance is 0 % or more').max(90, 'a tolerance is at most 90 %'),
+    distribution: z.enum(['uniform', 'normal']).default('uniform'),
+    permeabilityLowPercent: z.number().min(-90).max(0).optional(),
+    permeabilityHighPercent: z.number().min(0).max(200).optional(),
+  })
+  .superRefine((tolerance, ctx) => {
+    if ((tolerance.permeabilityLowPercent === undefined) !== (tolerance.permeabilityHighPercent === undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['permeabilityHighPercent'], message: 'give both ends of the permeability band, or neither' });
+    }
+  });
+
 export const PLACEMENTS = [
   'series-line1',
   'series-line2',
@@ -182,6 +200,8 @@ export const elementSchema = z
     placement: z.enum(PLACEMENTS),
     enabled: z.boolean().default(true),
     part: partSchema,
+    /** Manufacturing tolerance for the yield assistant (version 2); defaults by part kind when absent. */
+    tolerance: toleranceSchema.optional(),
   })
   .superRefine((element, ctx) => {
     const isChoke = element.part.kind === 'common-mode-choke';

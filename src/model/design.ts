@@ -23,6 +23,7 @@ import type {
   converterSchema,
   operatingSchema,
   supplySchema,
+  toleranceSchema,
 } from './design-schema.ts';
 import type { limitMaskSchema, noiseEstimateSchema, bandSchema, trapezoidSchema } from './emissions-schema.ts';
 import type { biasCurveSchema, dischargeRequirementSchema, leakageLimitSchema, partCoreSchema, safetySchema } from './safety-schema.ts';
@@ -55,6 +56,7 @@ export type Baseline = z.output<typeof baselineSchema>;
 export type Operating = z.output<typeof operatingSchema>;
 export type Supply = z.output<typeof supplySchema>;
 export type Converter = z.output<typeof converterSchema>;
+export type Tolerance = z.output<typeof toleranceSchema>;
 export type LimitMask = z.output<typeof limitMaskSchema>;
 export type LimitMaskInput = z.input<typeof limitMaskSchema>;
 export type NoiseEstimate = z.output<typeof noiseEstimateSchema>;

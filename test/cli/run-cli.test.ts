@@ -201,7 +201,7 @@ describe('bad input exits 2 with a message that names the problem', () => {
   });
 
   it('an unknown command, with a suggestion', async () => {
-    expect(await refused(['swep', DEMO])).toMatch(/^chokepoint: unknown command "swep" \(did you mean "sweep"\?\); commands: sweep, check, limits, measured-part, safety, report, help\n/u);
+    expect(await refused(['swep', DEMO])).toMatch(/^chokepoint: unknown command "swep" \(did you mean "sweep"\?\); commands: sweep, check, limits, measured-part, safety, report, diagnose, size, damp, stability, tolerance, map, propose, help\n/u);
     expect(await refused(['help', 'nothing'])).toMatch(/unknown command "nothing"/u);
   });
 
