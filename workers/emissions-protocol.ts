@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { ATTRIBUTIONS, DETECTORS } from '../src/model/emissions-schema.ts';
 import type { ValidationIssue } from '../src/model/index.ts';
 import type { EmissionsAnalysis } from '../src/spectrum/emissions-analysis.ts';
+import type { LimitingMode } from '../src/report/limiting-mode.ts';
 import { SCAN_TAGS } from '../src/spectrum/spectrum-types.ts';
 
 /**
@@ -128,6 +129,8 @@ export interface EmissionsSuccess {
   readonly analysis: EmissionsAnalysis;
   /** Time spent in the worker validating and analysing, in milliseconds. */
   readonly elapsedMs: number;
+  /** Which mode limits each band of the margin report, in its order, so nobody enlarges the CM choke to fix a DM failure. */
+  readonly limitingModes: readonly LimitingMode[];
 }
 
 /**

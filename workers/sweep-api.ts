@@ -17,6 +17,7 @@ import { type SweepFailure, type SweepFailureKind, type SweepReply, sweepRequest
 import { collectTransferables } from './transferables.ts';
 import { describeSource, DISCHARGE_REQUIREMENTS, formatFigure, LEAKAGE_LIMITS, runSafetyChecks } from '../src/safety/index.ts';
 import { makeReport } from '../src/report/make-report.ts';
+import { limitingModeOfBand } from '../src/report/limiting-mode.ts';
 import { reportRequestSchema, type ReportReply, type SafetyReply, safetyRequestSchema } from './checks-protocol.ts';
 
 /**
@@ -155,7 +156,8 @@ export const sweepApi = {
     }
     const elapsedMs = performance.now() - started;
     // A million-point scan makes tens of columns: move their buffers rather than copy them.
-    const reply = { ok: true as const, requestId, analysis, elapsedMs };
+    const limitingModes = analysis.report.bands.map((band) => limitingModeOfBand(analysis, band));
+    const reply = { ok: true as const, requestId, analysis, elapsedMs, limitingModes };
     // A stored scan's own columns appear in the analysis; moving them would empty the worker's copy.
     const kept = noise.kind === 'stored-scan' && input.kind === 'scan' ? new Set(collectTransferables(input.scan)) : new Set<ArrayBuffer>();
     return Comlink.transfer(reply, collectTransferables(analysis).filter((buffer) => !kept.has(buffer)));

@@ -1,5 +1,6 @@
 import type { ValidationIssue } from '../model/index.ts';
 import type { EmissionsAnalysis } from '../spectrum/emissions-analysis.ts';
+import type { LimitingMode } from '../report/limiting-mode.ts';
 import type { EmissionsFailureKind } from '../../workers/emissions-protocol.ts';
 
 /** How an emissions-analysis request ended, as the page sees it. */
@@ -11,6 +12,8 @@ export interface EmissionsDone {
   readonly analysis: EmissionsAnalysis;
   /** Time the worker spent, not counting the trip across threads. */
   readonly elapsedMs: number;
+  /** Which mode limits each band of the margin report, in its order (src/report/limiting-mode.ts). */
+  readonly limitingModes: readonly LimitingMode[];
 }
 
 /**

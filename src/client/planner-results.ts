@@ -12,6 +12,7 @@ import type { SafetyRequest } from '../../workers/checks-protocol.ts';
 import type { SweepError } from './sweep-outcome.ts';
 import type { SweepResult } from '../engine/index.ts';
 import type { EmissionsAnalysis } from '../spectrum/emissions-analysis.ts';
+import type { LimitingMode } from '../report/limiting-mode.ts';
 
 /**
  * What the page shows for each variant: its sweep and its emissions analysis, computed in the
@@ -39,7 +40,7 @@ export type SweepState =
 export type AnalysisState =
   | { readonly status: 'idle'; readonly reason: string }
   | { readonly status: 'running' }
-  | { readonly status: 'done'; readonly analysis: EmissionsAnalysis; readonly elapsedMs: number }
+  | { readonly status: 'done'; readonly analysis: EmissionsAnalysis; readonly elapsedMs: number; readonly limitingModes: readonly LimitingMode[] }
   | { readonly status: 'error'; readonly error: EmissionsError };
 
 export interface VariantResult {
@@ -209,7 +210,8 @@ export class PlannerResults {
     }
     const outcome = await slot.emissions.analyze(document, request.noise);
     if (outcome.status === 'superseded' || !this.isCurrent(slot, document, noiseKey)) return;
-    const analysis: AnalysisState = outcome.status === 'done' ? { status: 'done', analysis: outcome.analysis, elapsedMs: outcome.elapsedMs } : { status: 'error', error: outcome.error };
+    const analysis: AnalysisState =
+      outcome.status === 'done' ? { status: 'done', analysis: outcome.analysis, elapsedMs: outcome.elapsedMs, limitingModes: outcome.limitingModes } : { status: 'error', error: outcome.error };
     slot.result = { ...slot.result!, analysis, shown: { ...slot.result!.shown, analysis: analysis.status === 'done' ? analysis.analysis : undefined } };
     this.keep(variantId, cacheKey, slot.result);
     this.onChange(variantId);

@@ -23,7 +23,7 @@ export function readEmissionsReply(reply: unknown, requestId: number): Emissions
   // zod hands back copies without the fields it was not told about: pass on the reply's own
   // analysis, whose every field the page reads was checked above.
   const { analysis } = reply as { analysis: EmissionsAnalysis };
-  return { status: 'done', requestId, analysis, elapsedMs: value.elapsedMs };
+  return { status: 'done', requestId, analysis, elapsedMs: value.elapsedMs, limitingModes: value.limitingModes ?? [] };
 }
 
 function malformed(requestId: number, issues: ValidationIssue[]): EmissionsOutcome {
@@ -131,7 +131,13 @@ const analysisSchema = z
   });
 
 const replySchema = z.discriminatedUnion('ok', [
-  z.object({ ok: z.literal(true), requestId: z.number(), analysis: analysisSchema, elapsedMs: z.number().nonnegative() }),
+  z.object({
+    ok: z.literal(true),
+    requestId: z.number(),
+    analysis: analysisSchema,
+    elapsedMs: z.number().nonnegative(),
+    limitingModes: z.array(z.object({ mode: z.enum(['common mode', 'differential mode', 'both modes', 'not known']), reason: z.string() })).optional(),
+  }),
   z.object({
     ok: z.literal(false),
     requestId: z.number().nullable(),

@@ -541,7 +541,7 @@ export class ChokepointPlanner extends LitElement {
             </section>
             <section class="panel" aria-labelledby="margin-title">
               <h2 id="margin-title">Margin</h2>
-              ${analysis ? html`<chokepoint-margin-table .view=${this.derivedKeyed(analysis, marginTableView)}></chokepoint-margin-table>` : html`<p class="muted small">Nothing judged yet.</p>`}
+              ${analysis ? html`<chokepoint-margin-table .view=${this.derivedKeyed(analysis, (a) => marginTableView(a, result?.analysis.status === 'done' && result.analysis.analysis === a ? result.analysis.limitingModes : []))}></chokepoint-margin-table>` : html`<p class="muted small">Nothing judged yet.</p>`}
             </section>
             <section class="panel" aria-labelledby="variants-title">
               <h2 id="variants-title">Variants</h2>

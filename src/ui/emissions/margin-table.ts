@@ -184,6 +184,9 @@ export class MarginTable extends LitElement {
                 <td>
                   <span class="result ${band.verdict}" title=${band.reason}>${band.verdictText}</span>
                   ${band.verdict === 'none' ? html`<span class="which why">${band.reason}</span>` : nothing}
+                  ${band.limitedBy
+                    ? html`<span class="which limited" data-limited-by=${band.limitedBy.mode}>limited by <strong>${band.limitedBy.mode}</strong>: ${band.limitedBy.reason}</span>`
+                    : nothing}
                 </td>
               </tr>
             `,

@@ -39,6 +39,8 @@ export interface BandView {
   readonly covered: string;
   /** Why the band has its verdict, in words (for a band not covered: what is missing). */
   readonly reason: string;
+  /** For a band short of the target: which mode limits it and why ("differential mode: …"). */
+  readonly limitedBy?: { readonly mode: string; readonly reason: string };
 }
 
 export interface RangeView {
@@ -134,7 +136,13 @@ function bandView(band: BandResult, target: number): BandView {
   };
 }
 
-export function marginTableView(analysis: EmissionsAnalysis): MarginTableView {
+/** Which mode limits a band, as the worker found it (src/report/limiting-mode.ts). */
+export interface BandMode {
+  readonly mode: string;
+  readonly reason: string;
+}
+
+export function marginTableView(analysis: EmissionsAnalysis, limitingModes: readonly BandMode[] = []): MarginTableView {
   const report = analysis.report;
   const target = report.targetMarginDb;
   const status = report.verdict.status;
@@ -155,7 +163,12 @@ export function marginTableView(analysis: EmissionsAnalysis): MarginTableView {
         ? `Every band is covered and keeps at least the ${targetText} target margin below every limit (${judgedText}).`
         : `${shortfall.join('; ')} (${judgedText}).`;
 
-  const bands: BandView[] = report.bands.map((band) => bandView(band, target));
+  const bands: BandView[] = report.bands.map((band, b) => {
+    const view = bandView(band, target);
+    const mode = limitingModes[b];
+    // Said where it matters: a band short of the target, so the right mode's filter is enlarged.
+    return view.verdict === 'fail' && mode && mode.mode !== 'not known' ? { ...view, limitedBy: { mode: mode.mode, reason: mode.reason } } : view;
+  });
   const peaks = report.worstPeaks.map((point) => pointView(point, target));
   const failingRanges = report.failingRanges.map(
     (range): RangeView => ({ from: formatFrequency(range.startHz, 4), to: formatFrequency(range.stopHz, 4), worst: pointView(range.worst, target) }),

@@ -72,6 +72,16 @@ describe('marginTableView', () => {
     expect(view.bands[2]?.worst?.short).toBe(false);
   });
 
+  it('says which mode limits a band short of the target, and only there', () => {
+    const bands = judged([band('low', 150e3, 500e3, point(4.6, 262e3), 'fail'), band('high', 5e6, 30e6, point(44.9, 7.41e6), 'pass')]);
+    const view = marginTableView(withReport({ targetMarginDb: 6, ...bands }), [
+      { mode: 'differential mode', reason: 'filter improvement at the worst point: CM 11.3 dB, DM 4.6 dB' },
+      { mode: 'common mode', reason: 'irrelevant here: the band passes' },
+    ]);
+    expect(view.bands[0]!.limitedBy).toEqual({ mode: 'differential mode', reason: 'filter improvement at the worst point: CM 11.3 dB, DM 4.6 dB' });
+    expect(view.bands[1]!.limitedBy).toBeUndefined();
+  });
+
   it('passes when every band is covered and keeps the target, and gives no result when nothing was judged', () => {
     const pass = marginTableView(withReport(judged([band('all', 150e3, 30e6, point(12, 1e6), 'pass')])));
     expect(pass.verdict).toBe('pass');
