@@ -2,7 +2,7 @@ import { plotToSvg } from '../drawing/plot-svg.ts';
 import { serializeSvg } from '../drawing/svg-node.ts';
 import { attributes, element, escapeHtml } from './html-text.ts';
 import type { BandRow, PointRow, ReportData, ReportNumber, Statement } from './report-data.ts';
-import type { CheckStatus, ReportTable } from './report-inputs.ts';
+import type { CheckStatus, ReportCheck, ReportTable } from './report-inputs.ts';
 
 /**
  * The report as one self-contained HTML page: inline CSS (with print rules: A4 and Letter both fit,
@@ -223,19 +223,32 @@ function assumptionsSection(data: ReportData): string {
 function checksSection(data: ReportData): string {
   const checks = data.checks;
   if (!checks) return section('checks', 'Safety and practical checks', element('p', {}, 'Not run for this report: nothing here confirms leakage current, discharge, ratings, losses or saturation.'));
-  const rows = checks.checks
-    .map(
-      (check) =>
-        `<tr${attributes({ 'data-check-id': check.id, 'data-status': check.status })}>${text(check.title)}<td>${statusBadge(check.status)}</td><td>${escapeHtml(check.summary)}${
-          check.figures.length > 0 ? `<br><span class="muted">${escapeHtml(check.figures.map((f) => `${f.label}: ${f.value}`).join('; '))}</span>` : ''
-        }</td>${text(`${check.assumption}${check.confidence ? ` ${check.confidence}` : ''}`)}${text(check.source ?? '')}</tr>`,
-    )
+  // One short table per check (findings as rows), its assumptions listed once below it: a long check
+  // list then prints as several tables, each kept whole on its page.
+  const groups: { name: string; rows: typeof checks.checks }[] = [];
+  for (const check of checks.checks) {
+    const name = check.group ?? check.title;
+    const group = groups.find((g) => g.name === name);
+    if (group) (group.rows as ReportCheck[]).push(check);
+    else groups.push({ name, rows: [check] });
+  }
+  const tables = groups
+    .map((group, g) => {
+      const rows = group.rows
+        .map(
+          (check) =>
+            `<tr${attributes({ 'data-check-id': check.id, 'data-status': check.status })}>${text(check.group ? check.title : '')}<td>${statusBadge(check.status)}</td><td>${escapeHtml(check.summary)}${
+              check.figures.length > 0 ? `<br><span class="muted">${escapeHtml(check.figures.map((f) => `${f.label}: ${f.value}`).join('; '))}</span>` : ''
+            }</td>${text([check.source, check.confidence].filter((x): x is string => x !== undefined && x !== '').join('; '))}</tr>`,
+        )
+        .join('');
+      const assumptions = [...new Set(group.rows.flatMap((check) => (check.assumptions ?? [check.assumption]).filter((a) => a.trim() !== '')))];
+      return `<table${attributes({ 'data-table': `checks-${g + 1}` })}>${element('caption', {}, group.name)}${head(['Finding', 'Status', 'Result', 'Source'])}<tbody>${rows}</tbody></table>${
+        assumptions.length > 0 ? `<details open><summary class="muted">Assumptions of “${escapeHtml(group.name)}”</summary>${notes(assumptions)}</details>` : ''
+      }`;
+    })
     .join('');
-  return section(
-    'checks',
-    'Safety and practical checks',
-    `${checks.conditions ? element('p', {}, `Conditions: ${checks.conditions}.`) : ''}<table data-table="checks">${element('caption', {}, 'Checks')}${head(['Check', 'Status', 'Finding', 'Assumption', 'Source'])}<tbody>${rows}</tbody></table>${notes(checks.notes ?? [])}`,
-  );
+  return section('checks', 'Safety and practical checks', `${checks.conditions ? element('p', {}, `Conditions: ${checks.conditions}.`) : ''}${tables}${notes(checks.notes ?? [])}`);
 }
 
 function assistantsSection(data: ReportData): string {

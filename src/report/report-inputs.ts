@@ -23,6 +23,8 @@ export interface ReportFigure {
 /** One safety or practical check as the report shows it. */
 export interface ReportCheck {
   readonly id: string;
+  /** The check a finding belongs to ("Leakage (touch) current"): findings of one group print as one table. */
+  readonly group?: string;
   readonly title: string;
   readonly status: CheckStatus;
   /** One sentence: what was found. */
@@ -30,6 +32,8 @@ export interface ReportCheck {
   readonly figures: readonly ReportFigure[];
   /** What the result rests on (voltage, frequency, tolerance, the limit chosen). */
   readonly assumption: string;
+  /** The same, one statement each, when the producer has them apart (printed once per check). */
+  readonly assumptions?: readonly string[];
   /** The standard and clause, or "common practice, no source". */
   readonly source?: string;
   /** Where the limit's value is not confirmed, the plain words that say so. */

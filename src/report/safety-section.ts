@@ -10,7 +10,7 @@ export function safetySection(report: SafetyReport): SafetyChecksSection {
   const checks: ReportCheck[] = [];
   for (const check of report.checks) {
     if (check.status === 'skipped') {
-      checks.push({ id: check.id, title: check.title, status: 'not-run', summary: check.summary, figures: [], assumption: '' });
+      checks.push({ id: check.id, group: check.title, title: check.title, status: 'not-run', summary: check.summary, figures: [], assumption: '' });
       continue;
     }
     for (const finding of check.findings) {
@@ -21,11 +21,13 @@ export function safetySection(report: SafetyReport): SafetyChecksSection {
       const doubtful = finding.sources.filter((source) => source.confirmation !== 'published-text').map((source) => source.confirmationText);
       checks.push({
         id: finding.id,
-        title: `${check.title}: ${finding.title}`,
+        group: check.title,
+        title: finding.title,
         status,
         summary,
         figures: finding.figures.map((figure) => ({ label: figure.label, value: figure.text })),
         assumption: [...check.assumptions, ...finding.assumptions].join('; '),
+        assumptions: [...check.assumptions, ...finding.assumptions],
         ...(sources.length > 0 ? { source: sources.join('; ') } : {}),
         ...(doubtful.length > 0 ? { confidence: [...new Set(doubtful)].join('; ') } : {}),
       });

@@ -147,16 +147,25 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   });
   followLink();
 
+  let demoScan: Promise<string> | undefined;
+  const demoScanText = (): Promise<string> => {
+    demoScan ??= fetch(demoScanUrl).then((response) => {
+      if (!response.ok) throw new Error(`the page's server answered ${response.status}`);
+      return response.text();
+    });
+    // A failed fetch is tried again next time.
+    demoScan.catch(() => (demoScan = undefined));
+    return demoScan;
+  };
+  setTimeout(() => void demoScanText().catch(() => undefined), 1500);
+
   // Scans: read in the worker, kept in memory and in the saved work.
   let scanCount = 0;
   const scanHost: ScanPanelHost = {
     importScan: (text, options, onProgress) => scanImporter.importScan(text, options, onProgress),
-    // A file beside the page (not a script): fetched from the page's own origin when asked for.
-    demoScanText: async () => {
-      const response = await fetch(demoScanUrl);
-      if (!response.ok) throw new Error(`the page's server answered ${response.status}`);
-      return response.text();
-    },
+    // A file beside the page (not a script), fetched from the page's own origin once, soon after start,
+    // so that it is there when asked for even if the network has gone since.
+    demoScanText: () => demoScanText(),
     async keepScan(scan, invented) {
       scanCount += 1;
       const id = `scan-${Date.now().toString(36)}-${scanCount}`;
