@@ -4,6 +4,10 @@ import { FREQUENCY_UNITS } from '../src/io/frequency-unit.ts';
 import type { TableDelimiter } from '../src/io/impedance-table-csv.ts';
 import { readScanTextWithProgress, type ScanReadError } from '../src/io/scan-csv.ts';
 import { decodeText } from '../src/io/text-bytes.ts';
+import { detectMeasurementKind, type MeasurementKind, readMeasurement } from '../src/io/measurement-file.ts';
+import { MEASUREMENT_FIXTURES } from '../src/io/touchstone.ts';
+import { formatLineIssue } from '../src/io/text-issues.ts';
+import type { MeasuredImpedance } from '../src/model/index.ts';
 import { DETECTORS } from '../src/model/emissions-schema.ts';
 import { formatIssue, toValidationIssue } from '../src/model/index.ts';
 import { LEVEL_UNIT_NAMES } from '../src/spectrum/level-units.ts';
@@ -61,6 +65,11 @@ export type ScanImportReply = ScanImportSuccess | ScanImportFailure;
 export type ScanImportProgress = (fractionDone: number) => unknown;
 
 export const scanImportApi = {
+  /** A measured part's file, read as the command line reads it (importMeasuredPart below). */
+  importMeasuredPart(request: unknown): MeasuredPartReply {
+    return importMeasuredPart(request);
+  },
+
   importScan(request: unknown, onProgress?: ScanImportProgress): ScanImportReply {
     const started = performance.now();
     try {
@@ -98,6 +107,42 @@ export const scanImportApi = {
 };
 
 export type ScanImportApi = typeof scanImportApi;
+
+/** A measured part's file: its bytes, its name (the extension says Touchstone), and how it was read. */
+export const measuredPartRequestSchema = z.strictObject({
+  bytes: z.custom<Uint8Array>((value) => value instanceof Uint8Array, { message: 'expected a Uint8Array' }),
+  name: z.string().min(1).max(260),
+  /** Touchstone two-ports only: how the part sat between the ports (a one-port is a reflection). */
+  fixture: z.enum(MEASUREMENT_FIXTURES).optional(),
+  /** Tables only: the frequency unit when the header names none. */
+  frequencyUnit: z.enum(FREQUENCY_UNITS).optional(),
+});
+export type MeasuredPartRequest = z.input<typeof measuredPartRequestSchema>;
+
+export type MeasuredPartReply =
+  | { readonly ok: true; readonly part: MeasuredImpedance; readonly rejected: readonly string[]; readonly notes: readonly string[]; readonly kind: MeasurementKind }
+  | { readonly ok: false; readonly message: string; readonly issues: readonly string[] };
+
+/**
+ * Read a measured part (a |Z| table or a Touchstone file) exactly as `chokepoint measured-part` does
+ * (src/io/measurement-file.ts): lines it cannot use are left out and listed, the file is refused when
+ * no usable table remains.
+ */
+export function importMeasuredPart(request: unknown): MeasuredPartReply {
+  const parsed = measuredPartRequestSchema.safeParse(request, { reportInput: true });
+  if (!parsed.success) return { ok: false, message: `invalid measured-part request: ${parsed.error.issues.map((issue) => formatIssue(toValidationIssue(issue))).join('; ')}`, issues: [] };
+  const { bytes, name, fixture, frequencyUnit } = parsed.data;
+  const decoded = decodeText(bytes);
+  if (!decoded.ok) return { ok: false, message: decoded.error.message, issues: [] };
+  const kind = detectMeasurementKind(name, decoded.text);
+  try {
+    const reading = readMeasurement(decoded.text, { kind, path: name, ...(fixture ? { fixture } : {}), ...(frequencyUnit ? { frequencyUnit } : {}) });
+    if (!reading.ok) return { ok: false, message: `${name} is not a measurement this program can use`, issues: reading.issues.map(formatLineIssue) };
+    return { ok: true, part: reading.part, rejected: reading.rejected.map(formatLineIssue), notes: reading.notes.map(formatLineIssue), kind };
+  } catch (cause) {
+    return { ok: false, message: `the file could not be read: ${cause instanceof Error ? cause.message : String(cause)}`, issues: [] };
+  }
+}
 
 function failure(message: string): ScanImportFailure {
   return { ok: false, error: { message, rejected: [], notes: [] } };

@@ -1,8 +1,9 @@
 import * as Comlink from 'comlink';
 import { z } from 'zod';
 import { DETECTORS } from '../model/emissions-schema.ts';
+import type { MeasuredImpedance } from '../model/design.ts';
 import { SCAN_TAGS } from '../spectrum/spectrum-types.ts';
-import type { ScanImportApi, ScanImportFailure, ScanImportOptions, ScanImportReply, ScanImportRequest } from '../../workers/scan-import-api.ts';
+import type { MeasuredPartReply, MeasuredPartRequest, ScanImportApi, ScanImportFailure, ScanImportOptions, ScanImportReply, ScanImportRequest } from '../../workers/scan-import-api.ts';
 
 /**
  * The main-thread side of the scan-import worker: send a file's bytes (or text), get a Scan or the
@@ -17,6 +18,7 @@ import type { ScanImportApi, ScanImportFailure, ScanImportOptions, ScanImportRep
 /** The worker as the client calls it: a `Remote<ScanImportApi>` fits, and so does any test double. */
 export interface ScanImportRemote {
   importScan(request: ScanImportRequest, onProgress?: (fractionDone: number) => void): Promise<unknown>;
+  importMeasuredPart?(request: MeasuredPartRequest): Promise<unknown>;
 }
 
 export class ScanImportClient {
@@ -72,6 +74,24 @@ export class ScanImportClient {
     });
   }
 
+  /**
+   * Read a measured part's file (a |Z| table or a Touchstone file) in the worker, as the command line
+   * reads it. Never rejects: a malformed reply or a worker that cannot answer is a refusal with a reason.
+   */
+  async importMeasuredPart(bytes: Uint8Array, name: string, options: Pick<MeasuredPartRequest, 'fixture' | 'frequencyUnit'> = {}): Promise<MeasuredPartReply> {
+    if (this.closed || !this.remote.importMeasuredPart) return { ok: false, message: 'the file reader is not available', issues: [] };
+    try {
+      const reply = await this.remote.importMeasuredPart(Comlink.transfer({ bytes, name, ...options }, [bytes.buffer]));
+      const parsed = measuredReplySchema.safeParse(reply);
+      if (!parsed.success) return { ok: false, message: 'the file reader sent a malformed reply', issues: [] };
+      if (!parsed.data.ok) return parsed.data;
+      // The part itself is checked where it enters the design: the store validates the document.
+      return { ...parsed.data, part: (reply as { part: MeasuredImpedance }).part };
+    } catch (cause) {
+      return { ok: false, message: `the file reader did not answer: ${cause instanceof Error ? cause.message : String(cause)}`, issues: [] };
+    }
+  }
+
   /** The worker can no longer answer (it failed to load or crashed): end every pending import with this message. */
   failAll(message: string): void {
     for (const finish of [...this.pending]) finish(failure(message));
@@ -114,6 +134,11 @@ export function readScanImportReply(reply: unknown): ScanImportReply {
 function failure(message: string): ScanImportFailure {
   return { ok: false, error: { message, rejected: [], notes: [] } };
 }
+
+const measuredReplySchema = z.discriminatedUnion('ok', [
+  z.object({ ok: z.literal(true), part: z.object({ kind: z.literal('measured') }).passthrough(), rejected: z.array(z.string()), notes: z.array(z.string()), kind: z.enum(['impedance-table', 'touchstone']) }),
+  z.object({ ok: z.literal(false), message: z.string(), issues: z.array(z.string()) }),
+]);
 
 const float64 = z.instanceof(Float64Array, { message: 'expected a Float64Array' });
 const rejectedSchema = z.object({ line: z.number().int().nonnegative(), reason: z.string() });

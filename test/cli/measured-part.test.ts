@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { formatJson } from '../../src/cli/commands/measured-part.ts';
-import { detectMeasurementKind } from '../../src/cli/measurement-input.ts';
+import { detectMeasurementKind } from '../../src/io/measurement-file.ts';
 import { type CliIo, runCli } from '../../src/cli/run-cli.ts';
 import { sweepDesign } from '../../src/engine/index.ts';
 import { type Complex, complex, magnitude, phaseDeg } from '../../src/io/complex.ts';

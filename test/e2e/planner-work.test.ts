@@ -191,6 +191,29 @@ describe('files and links', () => {
   });
 });
 
+describe('measured parts', () => {
+  it('a |Z| table read in the page becomes the part, as the command line reads it; a bad file changes nothing', async () => {
+    const browser = await profile();
+    const { page } = await browser.open();
+    await settle(page);
+    await selectPart(page, 'CX3');
+    const editor = page.locator('chokepoint-part-editor');
+    await editor.locator('chokepoint-measured-import input[type="file"]').setInputFiles(join(repoRoot, 'fixtures/measured/invented-bead.csv'));
+    await expect.poll(async () => editor.locator('chokepoint-measured-import .said').innerText()).toMatch(/invented-bead\.csv read/u);
+    await settle(page);
+    const document = (await activeDocument(page)) as { stages: { elements: { id: string; part: { kind: string; origin?: { fileName?: string } } }[] }[] };
+    const part = document.stages.flatMap((s) => s.elements).find((e) => e.id === 'CX3')!.part;
+    expect(part.kind).toBe('measured');
+    expect(part.origin?.fileName).toBe('invented-bead.csv');
+    expect(await editor.locator('chokepoint-measured-import .summary').innerText()).toMatch(/measured \|Z\| table of \d+ points/u);
+    await shoot(page, 'measured-part', ['insertion-loss', 'part-impedance']);
+    const before = await activeDocument(page);
+    await editor.locator('chokepoint-measured-import input[type="file"]').setInputFiles({ name: 'not-a-table.csv', mimeType: 'text/csv', buffer: Buffer.from('nothing, here\nat, all\n') });
+    await expect.poll(async () => editor.locator('chokepoint-measured-import .said.error').innerText()).toMatch(/nothing changed/u);
+    expect(await activeDocument(page)).toEqual(before);
+  });
+});
+
 describe('keyboard and network', () => {
   it('a part is added, named and given a value by keyboard alone', async () => {
     const browser = await profile();

@@ -79,6 +79,7 @@ describe('scanImportApi over a MessageChannel (as between threads)', () => {
   function connect(): { remote: Comlink.Remote<ScanImportApi>; sent: ScanImportReply[] } {
     const sent: ScanImportReply[] = [];
     const api: ScanImportApi = {
+      ...scanImportApi,
       importScan(request, onProgress) {
         const reply = scanImportApi.importScan(request, onProgress);
         sent.push(reply);
@@ -129,5 +130,35 @@ describe('scanImportApi over a MessageChannel (as between threads)', () => {
     expect(reply.error.message).toMatch(/^no data lines found/u);
     const bad = failure(await remote.importScan({ text: 5 } as unknown as { text: string }));
     expect(bad.error.message).toMatch(/^invalid scan import request: text/u);
+  });
+});
+
+describe('scanImportApi.importMeasuredPart: a measured part read as the command line reads it', () => {
+  const bytes = (path: string) => new Uint8Array(readFileSync(new URL(`../../fixtures/measured/${path}`, import.meta.url)));
+
+  it('a |Z| table becomes a measured part with its origin', () => {
+    const reply = scanImportApi.importMeasuredPart({ bytes: bytes('invented-bead.csv'), name: 'invented-bead.csv' });
+    expect(reply.ok).toBe(true);
+    if (reply.ok) {
+      expect(reply.kind).toBe('impedance-table');
+      expect(reply.part.kind).toBe('measured');
+      expect(reply.part.table.frequencyHz.length).toBeGreaterThan(10);
+      expect(reply.part.origin?.fileName).toBe('invented-bead.csv');
+    }
+  });
+
+  it('a two-port Touchstone file needs its fixture; with it, the same table as the command line gives', () => {
+    const refused = scanImportApi.importMeasuredPart({ bytes: bytes('invented-winding-series-thru.s2p'), name: 'invented-winding-series-thru.s2p' });
+    expect(refused.ok).toBe(false);
+    if (!refused.ok) expect(refused.issues.join(' ')).toMatch(/series-thru or --fixture shunt-thru/u);
+    const reply = scanImportApi.importMeasuredPart({ bytes: bytes('invented-winding-series-thru.s2p'), name: 'invented-winding-series-thru.s2p', fixture: 'series-thru' });
+    expect(reply.ok && reply.part.origin?.format).toBe('touchstone-series-thru');
+  });
+
+  it('bytes that are not UTF-8 are refused by name', () => {
+    const utf16 = new Uint8Array(Buffer.from('\uFEFFfrequency,|Z|,phase\n1e6,10,0\n', 'utf16le'));
+    const reply = scanImportApi.importMeasuredPart({ bytes: utf16, name: 'z.csv' });
+    expect(reply.ok).toBe(false);
+    if (!reply.ok) expect(reply.message).toMatch(/UTF-16 LE/u);
   });
 });

@@ -15,7 +15,7 @@ import type { ParsedArgs } from '../args.ts';
 import type { Command, CommandContext } from '../command.ts';
 import { listProblems, readInputFile } from '../design-input.ts';
 import { CliError, ExitCode, UsageError } from '../exit-codes.ts';
-import { detectMeasurementKind, readMeasurement } from '../measurement-input.ts';
+import { detectMeasurementKind, readMeasurement } from '../../io/measurement-file.ts';
 import { tell, writeOutput } from '../output.ts';
 
 const NAME = 'measured-part';

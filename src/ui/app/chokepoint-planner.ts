@@ -19,6 +19,7 @@ import type { CursorMoveEvent } from '../charts/spec-chart.ts';
 import '../design/circuit-settings.ts';
 import '../design/filter-drawing.ts';
 import '../design/part-editor.ts';
+import type { MeasuredPartReader } from '../design/measured-import.ts';
 import '../design/stage-editor.ts';
 import '../editors/object-fields.ts';
 import { editorStyles } from '../editors/editor-styles.ts';
@@ -239,6 +240,8 @@ export class ChokepointPlanner extends LitElement {
   @property({ attribute: false }) notices: readonly { readonly tone: 'info' | 'error'; readonly text: string; readonly details?: readonly string[] }[] = [];
   @property({ attribute: 'data-theme', reflect: true }) shownTheme: PlotTheme = 'light';
   @property({ attribute: false }) themeChoice: ThemeChoice = 'system';
+  /** Reads a measured part's file (a |Z| table or Touchstone) in the file-reading worker. */
+  @property({ attribute: false }) measuredReader: MeasuredPartReader | undefined;
   /** Names for choices whose values are ids (listed leakage limits, discharge requirements), from the worker. */
   @property({ attribute: false }) choiceLabels: ReadonlyMap<string, string> = new Map();
   /** The saving of the work, when the browser keeps it: its revision is what was last written. */
@@ -466,7 +469,7 @@ export class ChokepointPlanner extends LitElement {
             </section>
             <section class="panel" aria-labelledby="part-title">
               <h2 id="part-title">${selected ? `Part ${selected}` : 'Part'}</h2>
-              <chokepoint-part-editor .document=${active.document} .elementId=${selected} .issues=${issues}></chokepoint-part-editor>
+              <chokepoint-part-editor .document=${active.document} .elementId=${selected} .issues=${issues} .measuredReader=${this.measuredReader}></chokepoint-part-editor>
             </section>
             <details class="panel" open>
               <summary>Noise and limits</summary>

@@ -301,6 +301,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   planner.addEventListener('theme-change', (event) => localStorage.setItem(THEME_KEY, (event as CustomEvent<{ choice: ThemeChoice }>).detail.choice));
 
   void remote.safetyChoiceLabels().then((labels) => (planner.choiceLabels = new Map(Object.entries(labels))));
+  planner.measuredReader = (bytes, name, options) => scanImporter.importMeasuredPart(bytes, name, options);
   planner.results = results;
   planner.scanHost = scanHost;
   planner.onExport = onExport;

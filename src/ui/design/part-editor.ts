@@ -9,6 +9,8 @@ import { PART_KIND_TEXT } from '../../planner/part-defaults.ts';
 import { sendIntent } from '../app/intent-event.ts';
 import { editorStyles } from '../editors/editor-styles.ts';
 import '../editors/object-fields.ts';
+import './measured-import.ts';
+import type { MeasuredPartReader } from './measured-import.ts';
 import { sharedStyles } from '../styles/theme.ts';
 
 /**
@@ -65,6 +67,8 @@ export class PartEditor extends LitElement {
   @property({ attribute: false }) document: JsonObject | undefined;
   @property({ attribute: false }) elementId: string | undefined;
   @property({ attribute: false }) issues: ReadonlyMap<string, string> = new Map();
+  /** Reads a measured part's file in the worker; the editor then offers to use a measurement. */
+  @property({ attribute: false }) measuredReader: MeasuredPartReader | undefined;
 
   @state() private renameMessage: string | undefined;
 
@@ -128,9 +132,17 @@ export class PartEditor extends LitElement {
         </div>
       </div>
       ${schema
-        ? html`<chokepoint-object-fields .document=${document} .path=${[...path, 'part']} .schema=${schema} .issues=${this.issues}></chokepoint-object-fields>`
+        ? html`<chokepoint-object-fields
+            .document=${document}
+            .path=${[...path, 'part']}
+            .schema=${schema}
+            .issues=${this.issues}
+            .skip=${kind === 'measured' ? ['table', 'origin'] : []}
+          ></chokepoint-object-fields>`
         : html`<p class="message">This part has no kind the program knows.</p>`}
-      <slot name="after-fields"></slot>
+      ${kind !== 'common-mode-choke'
+        ? html`<chokepoint-measured-import .partPath=${[...path, 'part']} .partValue=${part} .reader=${this.measuredReader}></chokepoint-measured-import>`
+        : nothing}
     `;
   }
 

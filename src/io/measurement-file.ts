@@ -1,16 +1,17 @@
-import { parseDecimal } from '../io/decimal-number.ts';
-import type { FrequencyUnit } from '../io/frequency-unit.ts';
-import { measuredPartFromTable, readImpedanceTableCsv } from '../io/impedance-table-csv.ts';
-import { type LineIssue, splitLines, type TextReadResult } from '../io/text-issues.ts';
-import { impedanceFromNetwork, type MeasurementFixture, measuredPartFromNetwork } from '../io/touchstone.ts';
-import { readTouchstone } from '../io/touchstone-network.ts';
+import { parseDecimal } from './decimal-number.ts';
+import type { FrequencyUnit } from './frequency-unit.ts';
+import { measuredPartFromTable, readImpedanceTableCsv } from './impedance-table-csv.ts';
+import { type LineIssue, splitLines, type TextReadResult } from './text-issues.ts';
+import { impedanceFromNetwork, type MeasurementFixture, measuredPartFromNetwork } from './touchstone.ts';
+import { readTouchstone } from './touchstone-network.ts';
 import type { MeasuredImpedance } from '../model/index.ts';
 
 /**
  * A measurement file on its way into a design: a |Z|/phase table or a Touchstone file, read
  * by the io readers. The readers refuse a whole file for one bad line; here a bad data line is left
  * out and reported instead, and the file is refused only when no usable table remains (docs/cli.md,
- * `measured-part`).
+ * `measured-part`). The command line and the page (through its file-reading worker) both read
+ * measured parts here, so a file reads the same way in either.
  */
 
 export type MeasurementKind = 'impedance-table' | 'touchstone';
