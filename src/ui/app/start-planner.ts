@@ -35,6 +35,8 @@ import type { FileActions } from './file-actions.ts';
 type Notice = ChokepointPlanner['notices'][number];
 
 const THEME_KEY = 'chokepoint-theme';
+/** The link this tab last put in its own address (sessionStorage: kept over a reload, not shared with other tabs). */
+const OWN_LINK_KEY = 'chokepoint-own-link';
 const PROGRAM_VERSION: string = packageJson.version;
 
 export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlanner> {
@@ -86,13 +88,16 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   // A design in the link opens as a new variant beside the saved work, never over it: at start, and
   // when a link is pasted into the address of the open page (a hashchange; our own replaceState fires none).
   const openLink = async (hash: string): Promise<void> => {
+    // The address this tab last wrote itself (a reload keeps it): the saved work is as new or newer.
+    if (hash !== '' && hash === sessionStorage.getItem(OWN_LINK_KEY)) return;
     const fromLink = await readShareLink(hash, deflateCodec);
     if (fromLink.status === 'invalid') {
       say({ tone: 'error', text: 'The design in the link cannot be used, so nothing was opened from it.', details: fromLink.error.issues.map(formatIssue) });
     } else if (fromLink.status === 'found') {
       const checked = asJson(fromLink.document);
       const linked = checked.ok && isJsonObject(checked.value) ? checked.value : undefined;
-      const same = linked && store.workspace.variants.find((v) => JSON.stringify(v.document) === JSON.stringify(linked));
+      const text = JSON.stringify(linked);
+      const same = linked && store.workspace.variants.find((v) => JSON.stringify(v.document) === text || (v.validDocument !== undefined && JSON.stringify(v.validDocument) === text));
       if (same) store.dispatch({ type: 'switch-variant', id: same.id });
       else if (linked) {
         store.dispatch({ type: 'open-design', document: linked, origin: 'link', label: 'open a design from a link' });
@@ -133,6 +138,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
       void encodeShareLink(document, deflateCodec).then((link) => {
         if (link.ok) {
           history.replaceState(null, '', `${window.location.pathname}${window.location.search}${link.hash}`);
+          sessionStorage.setItem(OWN_LINK_KEY, link.hash);
           linkTooLong = false;
         } else if (!linkTooLong) {
           linkTooLong = true;
