@@ -12,6 +12,7 @@ import type { SweepResult } from '../../engine/index.ts';
 import type { EmissionsAnalysis } from '../../spectrum/emissions-analysis.ts';
 import { emissionsSchema } from '../../model/design-schema.ts';
 import { formatIssue } from '../../model/validation-error.ts';
+import { formatFrequency } from '../../drawing/frequency-ticks.ts';
 import type { PlannerStore, StoreChange } from '../../planner/planner-store.ts';
 import { checkDocument, issuesByPath } from '../../planner/validation.ts';
 import { activeVariant, variantById, variantName, type Workspace } from '../../planner/workspace.ts';
@@ -82,6 +83,16 @@ export class ChokepointPlanner extends LitElement {
         position: sticky;
         top: 0;
         z-index: 5;
+      }
+      @media (max-width: 700px) {
+        /* On a phone-sized window the header's buttons wrap: let it scroll away with the page. */
+        header {
+          position: static;
+          padding: 8px 12px;
+        }
+        main {
+          padding: 10px 10px 24px;
+        }
       }
       h1 {
         margin: 0;
@@ -204,6 +215,27 @@ export class ChokepointPlanner extends LitElement {
       .reader-warnings {
         margin: 4px 0 0;
         font-size: 13px;
+      }
+      .verdict-line {
+        margin: 0 0 2px;
+        font-size: 14px;
+      }
+      .verdict-word {
+        font-weight: 800;
+        letter-spacing: 0.03em;
+        padding: 1px 8px;
+        border-radius: 4px;
+        border: 1px solid var(--cp-border);
+      }
+      .verdict-word.pass {
+        color: var(--cp-ok);
+        border-color: var(--cp-ok);
+        background: var(--cp-ok-bg);
+      }
+      .verdict-word.fail {
+        color: var(--cp-error-text);
+        border-color: var(--cp-error-border);
+        background: var(--cp-error-bg);
       }
       .pair {
         display: grid;
@@ -604,7 +636,14 @@ export class ChokepointPlanner extends LitElement {
     const noise = this.workspace?.noise;
     const scan = noise?.kind === 'scan' ? this.workspace?.scans.find((entry) => entry.id === noise.scanId) : undefined;
     const warnings = analysis?.input === 'scan' ? (scan?.warnings ?? []) : [];
+    const view = analysis ? this.derivedKeyed(analysis, (a) => marginTableView(a, result.analysis.status === 'done' ? result.analysis.limitingModes : [])) : undefined;
+    const worst = analysis?.report.worst;
     return html`<div class="status" role="status" data-state="swept">
+      ${view
+        ? html`<p class="verdict-line" data-verdict=${view.verdict}>
+            <span class="verdict-word ${view.verdict}">${view.verdictWord}</span> ${view.summary}${worst ? ` Lowest margin ${worst.marginDb.toFixed(1)} dB at ${formatFrequency(worst.frequencyHz, 4)}.` : ''}
+          </p>`
+        : nothing}
       <p class="status">Swept ${f.length} points in ${result.sweep.elapsedMs.toFixed(1)} ms in the worker${judged}.</p>
       ${warnings.length > 0 ? html`<ul class="reader-warnings">${warnings.map((warning) => html`<li>Warning: ${warning}</li>`)}</ul>` : nothing}
     </div>`;
