@@ -27,6 +27,28 @@ import { reportRequestSchema, type ReportReply, type SafetyReply, safetyRequestS
 const storedScans = new Map<string, Scan>();
 
 /**
+ * The last few designs validated, by their JSON text: the page asks for a sweep, an analysis and the
+ * safety checks of one design in a row, and validating it once is enough.
+ */
+const validated = new Map<string, ReturnType<typeof readDesign>>();
+const VALIDATED_KEPT = 8;
+
+function readDesignOnce(design: unknown): ReturnType<typeof readDesign> {
+  let key: string;
+  try {
+    key = JSON.stringify(design);
+  } catch {
+    return readDesign(design);
+  }
+  const known = validated.get(key);
+  if (known) return known;
+  const read = readDesign(design);
+  validated.set(key, read);
+  while (validated.size > VALIDATED_KEPT) validated.delete(validated.keys().next().value!);
+  return read;
+}
+
+/**
  * The object the sweep worker exposes. It holds no DOM and no state but the stored scans, so tests
  * call it directly or over a MessageChannel. Bad input comes back as `{ ok: false }`: a throw would
  * surface on the main thread as an opaque rejected promise without field paths.
@@ -81,7 +103,7 @@ export const sweepApi = {
     }
     const { requestId, design, options } = parsed.data;
 
-    const read = readDesign(design);
+    const read = readDesignOnce(design);
     if (!read.ok) return failure(requestId, 'invalid-design', 'invalid design', read.error.issues);
 
     let result: SweepResult;
@@ -110,7 +132,7 @@ export const sweepApi = {
     }
     const { requestId, design, noise, options } = parsed.data;
 
-    const read = readDesign(design);
+    const read = readDesignOnce(design);
     if (!read.ok) return emissionsFailure(requestId, 'invalid-design', 'invalid design', read.error.issues);
     const estimate = read.value.emissions?.estimate;
 
@@ -173,7 +195,7 @@ function safetyChecks(request: unknown): SafetyReply {
     const issues = parsed.error.issues.map(toValidationIssue);
     return { ok: false, requestId: salvageRequestId(request), error: { message: `invalid safety request: ${issues.map(formatIssue).join('; ')}`, issues } };
   }
-  const read = readDesign(parsed.data.design);
+  const read = readDesignOnce(parsed.data.design);
   if (!read.ok) return { ok: false, requestId: parsed.data.requestId, error: { message: 'invalid design', issues: read.error.issues } };
   try {
     return { ok: true, requestId: parsed.data.requestId, report: runSafetyChecks(read.value, parsed.data.options ?? {}) };

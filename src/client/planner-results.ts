@@ -171,8 +171,10 @@ export class PlannerResults {
     slot.result = { document, noiseKey, sweep, analysis: { status: 'running' }, safety, shown: sweep.status === 'done' ? { ...shown, sweep: sweep.result } : shown };
     this.onChange(variantId);
     if (sweep.status === 'running') void this.runSweep(variantId, slot, document, noiseKey, cacheKey);
-    if (safety.status === 'running') void this.runSafety(variantId, slot, document, noiseKey);
-    void this.runAnalysis(variantId, slot, document, noise, noiseKey, cacheKey);
+    // The safety checks wait for the analysis: the worker answers in order, and the plots come first.
+    void this.runAnalysis(variantId, slot, document, noise, noiseKey, cacheKey).then(() => {
+      if (safety.status === 'running' && this.isCurrent(slot, document, noiseKey)) void this.runSafety(variantId, slot, document, noiseKey);
+    });
   }
 
   private async runSweep(variantId: string, slot: Slot, document: JsonObject, noiseKey: string, cacheKey: string): Promise<void> {
