@@ -16,7 +16,6 @@ import {
 import { type SweepFailure, type SweepFailureKind, type SweepReply, sweepRequestSchema } from './sweep-protocol.ts';
 import { collectTransferables } from './transferables.ts';
 import { describeSource, DISCHARGE_REQUIREMENTS, formatFigure, LEAKAGE_LIMITS, runSafetyChecks } from '../src/safety/index.ts';
-import { makeReport } from '../src/report/make-report.ts';
 import { limitingModeOfBand } from '../src/report/limiting-mode.ts';
 import { reportRequestSchema, type ReportReply, type SafetyReply, safetyRequestSchema } from './checks-protocol.ts';
 
@@ -90,8 +89,13 @@ export const sweepApi = {
   },
 
   /** The printable hand-over report and its CSV files (docs/report.md). */
-  report(request: unknown): ReportReply {
+  report(request: unknown): Promise<ReportReply> {
     return report(request);
+  },
+
+  /** Load the report's code now (the page asks once it has drawn), so a report works offline later. */
+  async loadReportCode(): Promise<void> {
+    await import('../src/report/make-report.ts');
   },
 
   sweep(request: unknown): SweepReply {
@@ -204,8 +208,12 @@ function safetyChecks(request: unknown): SafetyReply {
   }
 }
 
-/** The hand-over report (docs/report.md), made exactly as `chokepoint report` makes it. */
-function report(request: unknown): ReportReply {
+/**
+ * The hand-over report (docs/report.md), made exactly as `chokepoint report` makes it. The report's
+ * code (the SVG drawings, the HTML, the hashes) loads on first use: a quarter of this worker that the
+ * first plot does not need (the page loads it once it has drawn, so a report works offline).
+ */
+async function report(request: unknown): Promise<ReportReply> {
   const parsed = reportRequestSchema.safeParse(request, { reportInput: true });
   if (!parsed.success) {
     const issues = parsed.error.issues.map(toValidationIssue);
@@ -227,6 +235,7 @@ function report(request: unknown): ReportReply {
     noiseInput = { kind: 'scan', scan };
   } else if (noise?.kind === 'estimate') noiseInput = { kind: 'estimate' };
   try {
+    const { makeReport } = await import('../src/report/make-report.ts');
     const made = makeReport({
       design: read.value,
       ...(noiseInput ? { noise: noiseInput } : {}),

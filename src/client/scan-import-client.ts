@@ -106,17 +106,31 @@ export class ScanImportClient {
   }
 }
 
-/** The app's scan-import client: one module worker that reads scan files. */
-export function createScanImportWorkerClient(): ScanImportClient {
-  const worker = new Worker(new URL('../../workers/scan-import.worker.ts', import.meta.url), { type: 'module', name: 'chokepoint-scan-import' });
-  const client = new ScanImportClient(Comlink.wrap<ScanImportApi>(worker), () => worker.terminate());
-  // Without these, a worker that fails to load leaves every import pending forever.
-  worker.addEventListener('error', (event) => {
-    client.failAll(`the scan import worker stopped: ${event.message || 'its script could not be loaded'}`);
-  });
-  worker.addEventListener('messageerror', () => {
-    client.failAll('the scan import worker sent a message that could not be read');
-  });
+/**
+ * The app's scan-import client: one module worker that reads scan files, started on first use (or
+ * by `start()`), so that loading its script does not compete with the page's first plot.
+ */
+export function createScanImportWorkerClient(): ScanImportClient & { start(): void } {
+  let worker: Worker | undefined;
+  let remote: Comlink.Remote<ScanImportApi> | undefined;
+  const started = (): Comlink.Remote<ScanImportApi> => {
+    if (remote) return remote;
+    worker = new Worker(new URL('../../workers/scan-import.worker.ts', import.meta.url), { type: 'module', name: 'chokepoint-scan-import' });
+    remote = Comlink.wrap<ScanImportApi>(worker);
+    // Without these, a worker that fails to load leaves every import pending forever.
+    worker.addEventListener('error', (event) => {
+      client.failAll(`the scan import worker stopped: ${event.message || 'its script could not be loaded'}`);
+    });
+    worker.addEventListener('messageerror', () => {
+      client.failAll('the scan import worker sent a message that could not be read');
+    });
+    return remote;
+  };
+  const lazyRemote: ScanImportRemote = {
+    importScan: (request, onProgress) => started().importScan(request, onProgress),
+    importMeasuredPart: (request) => started().importMeasuredPart(request),
+  };
+  const client = Object.assign(new ScanImportClient(lazyRemote, () => worker?.terminate()), { start: () => void started() });
   return client;
 }
 

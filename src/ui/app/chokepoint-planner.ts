@@ -50,7 +50,7 @@ import '../checks/safety-panel.ts';
 export type ThemeChoice = 'system' | 'light' | 'dark';
 
 /** What the page does with plot exports (download a file); tests pass a recorder. */
-export type ExportHandler = (spec: PlotSpec, format: 'csv' | 'svg' | 'png', theme: PlotTheme) => void;
+export type ExportHandler = (spec: PlotSpec, format: 'csv' | 'svg' | 'png', theme: PlotTheme) => void | Promise<void>;
 
 interface Specs {
   readonly emissions: PlotSpec | undefined;

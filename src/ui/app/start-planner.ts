@@ -6,8 +6,6 @@ import { PlannerResults } from '../../client/planner-results.ts';
 import { createScanImportWorkerClient } from '../../client/scan-import-client.ts';
 import { Autosave } from '../../client/storage/autosave.ts';
 import { PlannerDatabase } from '../../client/storage/planner-db.ts';
-import { plotToCsv } from '../../drawing/plot-csv.ts';
-import { drawPlot, plotToSvg } from '../../drawing/plot-svg.ts';
 import { svgToPngBlob } from '../drawing/svg-to-png.ts';
 import { parseJsonText } from '../../io/json-text.ts';
 import { decodeText } from '../../io/text-bytes.ts';
@@ -24,6 +22,7 @@ import type { ScanPanelHost } from '../emissions/scan-panel.ts';
 import type { ChokepointPlanner, ExportHandler, ThemeChoice } from './chokepoint-planner.ts';
 import './chokepoint-planner.ts';
 import './file-actions.ts';
+import { loadLaterCode, loadPlotExport } from './later-code.ts';
 import type { FileActions } from './file-actions.ts';
 
 /**
@@ -163,7 +162,14 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
     demoScan.catch(() => (demoScan = undefined));
     return demoScan;
   };
-  setTimeout(() => void demoScanText().catch(() => undefined), 1500);
+  // Soon after start, once the first plot has had the machine: what later actions need, so that they
+  // work offline too (the demo scan, the scan reader, export and report code).
+  setTimeout(() => {
+    void demoScanText().catch(() => undefined);
+    scanImporter.start();
+    loadLaterCode();
+    void remote.loadReportCode();
+  }, 1500);
 
   // Scans: read in the worker, kept in memory and in the saved work.
   let scanCount = 0;
@@ -200,8 +206,16 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
     a.click();
     setTimeout(() => URL.revokeObjectURL(url), 10_000);
   };
-  const onExport: ExportHandler = (spec, format) => {
+  const onExport: ExportHandler = async (spec, format) => {
     const base = `${fileStem(activeVariant(store.workspace).document)}-${spec.id}`;
+    let code: Awaited<ReturnType<typeof loadPlotExport>>;
+    try {
+      code = await loadPlotExport();
+    } catch (cause) {
+      say({ tone: 'error', text: `The export could not start: ${cause instanceof Error ? cause.message : String(cause)}` });
+      return;
+    }
+    const [{ drawPlot, plotToSvg }, { plotToCsv }] = code;
     if (format === 'csv') {
       download(`${base}.csv`, 'text/csv', plotToCsv(spec));
       return;
@@ -212,7 +226,7 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
     if (format === 'svg') download(`${base}.svg`, 'image/svg+xml', svgText);
     else {
       const { layout } = drawPlot(spec, size);
-      void svgToPngBlob(svgText, layout.width, layout.height, 2).then(
+      await svgToPngBlob(svgText, layout.width, layout.height, 2).then(
         (blob) => download(`${base}.png`, 'image/png', blob),
         (cause: unknown) => say({ tone: 'error', text: `The picture could not be made: ${cause instanceof Error ? cause.message : String(cause)}` }),
       );

@@ -1,6 +1,5 @@
 import { css, html, LitElement, nothing, type TemplateResult } from 'lit';
 import { customElement, property, state } from 'lit/decorators.js';
-import { readMaskCsv, maskToCsv } from '../../io/mask-csv.ts';
 import { formatLineIssue } from '../../io/text-issues.ts';
 import { decodeText } from '../../io/text-bytes.ts';
 import { emissionsSchema } from '../../model/design-schema.ts';
@@ -9,6 +8,7 @@ import { masksOf } from '../../planner/edits/emissions-edits.ts';
 import { isJsonObject, type Json, type JsonObject } from '../../planner/json.ts';
 import { LIMIT_PRESETS, type LimitPreset, presetSourceText } from '../../spectrum/limit-presets.ts';
 import { sendIntent } from '../app/intent-event.ts';
+import { loadMaskCsv } from '../app/later-code.ts';
 import { editorStyles } from '../editors/editor-styles.ts';
 import '../editors/object-fields.ts';
 import { sharedStyles } from '../styles/theme.ts';
@@ -194,7 +194,7 @@ export class LimitEditor extends LitElement {
       ${problems.length > 0 ? html`<p class="message">${problems.map(([path, message]) => `${path.replace(`emissions.masks[${m}].`, '')}: ${message}`).join('; ')}</p>` : nothing}
       <div class="row-actions">
         <button type="button" aria-expanded=${open ? 'true' : 'false'} @click=${() => (this.openMask = open ? undefined : id)}>${open ? 'Hide the points' : 'Edit the points'}</button>
-        <button type="button" @click=${() => this.exportMask(id, m)}>Export CSV</button>
+        <button type="button" @click=${() => void this.exportMask(id, m)}>Export CSV</button>
       </div>
       ${open
         ? html`<table class="points">
@@ -233,7 +233,7 @@ export class LimitEditor extends LitElement {
     if (this.send({ type: 'add-preset-mask', presetId: this.presetChoice })?.ok) this.presetChoice = '';
   }
 
-  private exportMask(maskId: string, index: number): void {
+  private async exportMask(maskId: string, index: number): Promise<void> {
     const raw = masksOf(this.document ?? {})[index];
     const parsed = limitMaskSchema.safeParse(raw);
     if (!parsed.success) {
@@ -241,6 +241,13 @@ export class LimitEditor extends LitElement {
       return;
     }
     this.message = undefined;
+    let maskToCsv: Awaited<ReturnType<typeof loadMaskCsv>>['maskToCsv'];
+    try {
+      ({ maskToCsv } = await loadMaskCsv());
+    } catch (cause) {
+      this.message = { text: `The CSV writer could not load: ${cause instanceof Error ? cause.message : String(cause)}.`, details: [] };
+      return;
+    }
     this.dispatchEvent(new CustomEvent('download-request', { detail: { fileName: `${maskId}.csv`, mimeType: 'text/csv', text: maskToCsv(parsed.data) }, bubbles: true, composed: true }));
   }
 
@@ -259,6 +266,13 @@ export class LimitEditor extends LitElement {
       text = decoded.text;
     } catch (cause) {
       this.message = { text: `${file.name} could not be read: ${cause instanceof Error ? cause.message : String(cause)}. Nothing changed.`, details: [] };
+      return;
+    }
+    let readMaskCsv: Awaited<ReturnType<typeof loadMaskCsv>>['readMaskCsv'];
+    try {
+      ({ readMaskCsv } = await loadMaskCsv());
+    } catch (cause) {
+      this.message = { text: `The CSV reader could not load: ${cause instanceof Error ? cause.message : String(cause)}. Nothing changed.`, details: [] };
       return;
     }
     const read = readMaskCsv(text, { name: file.name.replace(/\.[^.]+$/u, '') });
