@@ -1,5 +1,5 @@
 import * as Comlink from 'comlink';
-import { sweepDesign, type SweepResult, transferables } from '../src/engine/index.ts';
+import { sweepDesign, type SweepResult, SweepScratch, transferables } from '../src/engine/index.ts';
 import { formatIssue, readDesign, toValidationIssue, type ValidationIssue } from '../src/model/index.ts';
 import { analyzeEmissions, type EmissionsAnalysis, type NoiseInput } from '../src/spectrum/emissions-analysis.ts';
 import { estimateIssues } from '../src/spectrum/noise-estimate.ts';
@@ -46,6 +46,9 @@ function readDesignOnce(design: unknown): ReturnType<typeof readDesign> {
   while (validated.size > VALIDATED_KEPT) validated.delete(validated.keys().next().value!);
   return read;
 }
+
+/** The kernel's working memory, kept from one sweep to the next: every edit sweeps again (sweep-scratch.ts). */
+const scratch = new SweepScratch();
 
 /**
  * The object the sweep worker exposes. It holds no DOM and no state but the stored scans, so tests
@@ -112,7 +115,7 @@ export const sweepApi = {
 
     let result: SweepResult;
     try {
-      result = sweepDesign(read.value, { refine: options?.refine ?? true });
+      result = sweepDesign(read.value, { refine: options?.refine ?? true, scratch });
     } catch (cause) {
       const message = cause instanceof Error ? cause.message : String(cause);
       return failure(requestId, 'engine-failure', `the sweep failed: ${message}`, []);

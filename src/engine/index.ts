@@ -3,6 +3,7 @@
  * sweep worker and in tests. Callers outside src/engine import from this file only.
  */
 export { sweepDesign, type SweepOptions } from './sweep/sweep-design.ts';
+export { SweepScratch } from './sweep/sweep-scratch.ts';
 export {
   SWEEP_COLUMNS,
   TRANSFER_IDS,

@@ -8,6 +8,7 @@ import { PointFlag, powerRatioToDb } from '../point-flags.ts';
 import { findExtremumCandidates, MAX_REFINED_EXTREMA, type RefinedExtremum, refineExtrema } from './refine-extrema.ts';
 import { modeColumn, type ModeQuantity } from './response-curves.ts';
 import { findSelfResonances, type ImpedanceFunction } from './self-resonance.ts';
+import type { SweepScratch } from './sweep-scratch.ts';
 import {
   type ElementSweep,
   type ImpedanceView,
@@ -26,6 +27,8 @@ export interface SweepOptions {
   readonly refine?: boolean;
   /** Frequencies to include besides the plan's grid (limit-mask corners, scan points), in Hz. */
   readonly extraFrequencyHz?: readonly number[];
+  /** Working memory kept between sweeps by a caller that sweeps repeatedly (sweep-scratch.ts). */
+  readonly scratch?: SweepScratch;
 }
 
 /**
@@ -50,8 +53,8 @@ export function sweepDesign(design: Design, options: SweepOptions = {}): SweepRe
   // (which may hold up to MAX_REFINED_EXTREMA more points than the first).
   const refine = options.refine ?? true;
   const capacity = grid.frequencyHz.length + (refine ? 2 * MAX_REFINED_EXTREMA : 0);
-  const workspace = createWorkspace(network, capacity);
-  const response = allocateResponse(capacity, network.resistiveSystems.length);
+  const workspace = options.scratch ? options.scratch.workspaceFor(network, capacity) : createWorkspace(network, capacity);
+  const response = options.scratch ? options.scratch.responseFor(capacity, network.resistiveSystems.length) : allocateResponse(capacity, network.resistiveSystems.length);
   const sweepInto = (frequencyHz: Float64Array): NetworkResponse => {
     response.flags.fill(0, 0, frequencyHz.length);
     evaluateNetwork(network, frequencyHz, workspace, response);

@@ -4,6 +4,7 @@ import { drawLadder } from '../../drawing/ladder-svg.ts';
 import type { PlotTheme } from '../../drawing/plot-palette.ts';
 import type { Design } from '../../model/design.ts';
 import { sendIntent } from '../app/intent-event.ts';
+import { patchSvgDom } from '../drawing/svg-patch.ts';
 import { svgToDom } from '../drawing/svg-to-dom.ts';
 
 /**
@@ -65,8 +66,10 @@ export class FilterDrawing extends LitElement {
   protected override updated(changed: PropertyValues<this>): void {
     if (!this.frame || !(changed.has('design') || changed.has('selectedId') || changed.has('theme') || changed.has('maxRowWidth'))) return;
     const focused = (this.renderRoot as ShadowRoot).activeElement?.getAttribute('data-element-id');
-    this.frame.replaceChildren();
-    if (!this.design) return;
+    if (!this.design) {
+      this.frame.replaceChildren();
+      return;
+    }
     const { node } = drawLadder(this.design, {
       interactive: true,
       theme: this.theme,
@@ -74,7 +77,10 @@ export class FilterDrawing extends LitElement {
       idPrefix: 'filter',
       ...(this.selectedId === undefined ? {} : { selectedElementId: this.selectedId }),
     });
-    this.frame.append(svgToDom(node));
+    // A value typed changes a few labels: patch the drawing shown rather than rebuild it.
+    const shown = this.frame.firstElementChild;
+    if (shown) patchSvgDom(shown, node);
+    else this.frame.append(svgToDom(node));
     // A redraw keeps the keyboard where it was.
     if (focused) this.frame.querySelector<SVGElement>(`[data-element-id="${CSS.escape(focused)}"]`)?.focus();
   }
