@@ -101,6 +101,16 @@ export const sweepApi = {
     await import('../src/report/make-report.ts');
   },
 
+  /**
+   * The storage of a sweep result the page no longer shows or keeps, handed back so that a later sweep
+   * writes into it rather than into fresh memory (src/engine/sweep/sweep-scratch.ts).
+   */
+  reuseSweepBuffer(buffer: unknown): boolean {
+    if (!(buffer instanceof ArrayBuffer)) return false;
+    scratch.reuseResultBuffer(buffer);
+    return true;
+  },
+
   sweep(request: unknown): SweepReply {
     const started = performance.now();
     const parsed = sweepRequestSchema.safeParse(request, { reportInput: true });

@@ -86,6 +86,12 @@ export class PlannerResults {
     private readonly scans: ScanSource,
     /** Called whenever a variant's results change (started, finished, failed). */
     private readonly onChange: (variantId: string) => void,
+    /**
+     * Given the storage of a sweep result that nothing shows or keeps any more, so the worker can write
+     * a later result into it (memory used before is much cheaper than fresh memory: sweep-scratch.ts).
+     * The buffer is unusable here afterwards.
+     */
+    private readonly releaseSweepBuffer?: (buffer: ArrayBuffer) => void,
   ) {}
 
   /** Results for a variant as far as they have come. */
@@ -231,7 +237,24 @@ export class PlannerResults {
     }
     kept.delete(cacheKey);
     kept.set(cacheKey, result);
-    while (kept.size > KEPT_PER_VARIANT) kept.delete(kept.keys().next().value!);
+    while (kept.size > KEPT_PER_VARIANT) {
+      const oldest = kept.keys().next().value!;
+      const evicted = kept.get(oldest)!;
+      kept.delete(oldest);
+      this.release(evicted);
+    }
+  }
+
+  /** Hand an evicted result's sweep storage back, unless some result still shown or kept holds it. */
+  private release(evicted: VariantResult): void {
+    if (!this.releaseSweepBuffer || evicted.sweep.status !== 'done') return;
+    const sweep = evicted.sweep.result;
+    const holds = (result: VariantResult | undefined): boolean =>
+      result !== undefined && ((result.sweep.status === 'done' && result.sweep.result === sweep) || result.shown.sweep === sweep);
+    for (const slot of this.slots.values()) if (holds(slot.result)) return;
+    for (const kept of this.kept.values()) for (const result of kept.values()) if (holds(result)) return;
+    const buffer = sweep.frequencyHz.buffer;
+    if (buffer instanceof ArrayBuffer && buffer.byteLength > 0) this.releaseSweepBuffer(buffer);
   }
 
   /** The noise as the worker's report request names it (a stored scan, or the estimate), or undefined when there is none. */

@@ -118,4 +118,32 @@ describe('results per variant', () => {
     await settled(lost, ['v1']);
     expect(lost.resultFor('v1')!.analysis).toMatchObject({ status: 'idle', reason: expect.stringMatching(/not loaded/u) });
   });
+
+  it('hands back only the storage of results evicted from the kept ones and held by nothing shown', async () => {
+    const { remote } = countingRemote();
+    const store = new PlannerStore(workspaceOf(demo, 'demo', true));
+    const released: ArrayBuffer[] = [];
+    const results = new PlannerResults(remote, () => undefined, () => undefined, (buffer) => released.push(buffer));
+    const sweepsSeen: ArrayBuffer[] = [];
+    const edit = async (nanofarads: number): Promise<void> => {
+      store.dispatch({ type: 'set-field', path: ['stages', 0, 'elements', 0, 'part', 'capacitance'], value: `${nanofarads}n` });
+      results.update(store.workspace);
+      await settled(results, ['v1']);
+      const sweep = results.resultFor('v1')!.sweep;
+      if (sweep.status === 'done') sweepsSeen.push(sweep.result.frequencyHz.buffer as ArrayBuffer);
+    };
+    results.update(store.workspace);
+    await settled(results, ['v1']);
+    // Eight results are kept per variant (undo finds them): nothing is released before a ninth.
+    for (let k = 1; k <= 7; k += 1) await edit(100 + k);
+    expect(released).toEqual([]);
+    for (let k = 8; k <= 10; k += 1) await edit(100 + k);
+    expect(released.length).toBe(3);
+    const shown = results.resultFor('v1')!.sweep;
+    for (const buffer of released) {
+      // The oldest results, never the one shown.
+      expect(sweepsSeen.indexOf(buffer)).toBeLessThan(3);
+      if (shown.status === 'done') expect(buffer).not.toBe(shown.result.frequencyHz.buffer);
+    }
+  });
 });

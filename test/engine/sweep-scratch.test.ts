@@ -18,7 +18,7 @@ function numbersOf(result: SweepResult): number[][] {
 }
 
 describe('sweep scratch memory', () => {
-  it('gives exactly the numbers of a fresh sweep, whatever was swept with it before', () => {
+  it('gives exactly the numbers of a fresh sweep, whatever was swept with it or written in its result buffers before', () => {
     // One scratch carried through a run of random designs of different shapes and grid sizes (and
     // the same shape again with another grid): memory left over from an earlier sweep must never
     // show in a later one, so each result equals a sweep with memory of its own, to the bit.
@@ -30,6 +30,8 @@ describe('sweep scratch memory', () => {
         const reused = sweepDesign(design, { refine, scratch });
         expect(numbersOf(reused)).toEqual(numbersOf(fresh));
         expect(reused.resonances).toEqual(fresh.resonances);
+        // Handed back, its storage holds the next result: stale values there must not show either.
+        scratch.reuseResultBuffer(reused.frequencyHz.buffer as ArrayBuffer);
       }),
       propertySettings(40),
     );
@@ -44,5 +46,11 @@ describe('sweep scratch memory', () => {
     const larger = buildDesign({ elements: [element('line-to-line', capacitor(4.7e-7, { esl: 1e-8, esr: 0.01 }))], frequencyPlan: plan });
     sweepDesign(larger, { scratch });
     expect(numbersOf(first)).toEqual(kept);
+    // Once handed back, the next result of that size is written into the same storage, afresh.
+    const storage = first.frequencyHz.buffer as ArrayBuffer;
+    scratch.reuseResultBuffer(storage);
+    const again = sweepDesign(larger, { scratch });
+    expect(again.frequencyHz.buffer).toBe(storage);
+    expect(numbersOf(again)).toEqual(numbersOf(sweepDesign(larger)));
   });
 });

@@ -45,7 +45,7 @@ export function sweepDesign(design: Design, options: SweepOptions = {}): SweepRe
   if (options.extraFrequencyHz?.length) grid = mergeIntoGrid(grid, options.extraFrequencyHz, PointOrigin.Base);
 
   const warnings: SweepWarning[] = idealPartWarnings(network);
-  const selfResonances = elementSelfResonances(network, grid.frequencyHz);
+  const selfResonances = elementSelfResonances(network, grid.frequencyHz, options.scratch);
   const resonanceHz = selfResonances.flatMap((element) => element.views.flatMap((view) => view.resonances.map((r) => r.frequencyHz)));
   grid = mergeIntoGrid(grid, resonanceHz, PointOrigin.ElementResonance);
 
@@ -81,7 +81,7 @@ export function sweepDesign(design: Design, options: SweepOptions = {}): SweepRe
   }
 
   const finalResponse = sweepInto(grid.frequencyHz);
-  return assemble(design, network, grid, finalResponse, workspace, selfResonances, refined, warnings);
+  return assemble(design, network, grid, finalResponse, workspace, selfResonances, refined, warnings, options.scratch);
 }
 
 interface ElementResonances {
@@ -90,17 +90,19 @@ interface ElementResonances {
 }
 
 /** Self-resonances of each element's impedance (each mode of a choke), from the base grid. */
-function elementSelfResonances(network: Network, grid: Float64Array): ElementResonances[] {
+function elementSelfResonances(network: Network, grid: Float64Array, scratch: SweepScratch | undefined): ElementResonances[] {
   const flags = new Uint8Array(grid.length);
+  // Only resonance frequencies leave this function, so the impedances on the grid may be scratch.
+  const columns = (index: number): ComplexColumns => (scratch ? scratch.temporaryColumns(index, grid.length) : complexColumns(grid.length));
   return network.elements.map((element) => {
     if (element.kind === 'two-terminal') {
-      const onGrid = complexColumns(grid.length);
+      const onGrid = columns(0);
       element.impedance.evaluate(grid, onGrid, flags);
       const impedance: ImpedanceFunction = (f, out, probeFlags) => element.impedance.evaluate(f, out, probeFlags);
       return { element, views: [{ name: 'impedance', resonances: findSelfResonances(impedance, grid, onGrid) }] };
     }
-    const even = complexColumns(grid.length);
-    const odd = complexColumns(grid.length);
+    const even = columns(0);
+    const odd = columns(1);
     element.eigenImpedances(grid, even, odd, flags);
     const scratchOther = complexColumns(1);
     const evenOnly: ImpedanceFunction = (f, out, probeFlags) => element.eigenImpedances(f, out, scratchOther, probeFlags);
@@ -160,11 +162,12 @@ function assemble(
   selfResonances: readonly ElementResonances[],
   refined: readonly RefinedExtremum[],
   warnings: SweepWarning[],
+  scratch: SweepScratch | undefined,
 ): SweepResult {
   const n = grid.frequencyHz.length;
   const viewCount = network.elements.reduce((sum, e) => sum + (e.kind === 'coupled-pair' ? 2 : 1), 0);
   const doubles = n * (1 + SWEEP_COLUMNS.length + 2 * TRANSFER_IDS.length + 2 * viewCount);
-  const arena = new Arena(new Float64Array(doubles), n);
+  const arena = new Arena(scratch ? scratch.resultStorage(doubles) : new Float64Array(doubles), n);
   const frequencyHz = arena.take();
   frequencyHz.set(grid.frequencyHz);
 

@@ -51,7 +51,12 @@ export async function startPlanner(parent: HTMLElement): Promise<ChokepointPlann
   const remote = Comlink.wrap<SweepApi>(worker);
   const scanImporter = createScanImportWorkerClient();
   const scans = new Map<string, Scan>();
-  const results = new PlannerResults(remote, (id) => scans.get(id), () => planner.resultsChanged());
+  const results = new PlannerResults(
+    remote,
+    (id) => scans.get(id),
+    () => planner.resultsChanged(),
+    (buffer) => void remote.reuseSweepBuffer(Comlink.transfer(buffer, [buffer])).catch(() => undefined),
+  );
   worker.addEventListener('error', (event) => say({ tone: 'error', text: `The engine's worker stopped: ${event.message || 'its script could not be loaded'}. Reload the page.` }));
 
   // The saved work.
