@@ -31,7 +31,7 @@ export const checkCommand: Command = {
     'A band passes only when judged points cover it: a scan point (or a harmonic of the estimate) where a limit applies, above the noise floor, with the covered points reaching both edges of the band. A band without such evidence is "not covered" and the result fails; when nothing at all was judged (a scan in MHz read as Hz, say), there is no result: the command says why and exits 2. How the scan was read goes to standard error as notes, and what looks like a mistake as warnings.',
     'Exit code 0 when every band is covered and keeps the target margin, 1 when a band does not or is not covered, 2 on bad input or when nothing was judged.',
   ],
-  arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1)' }],
+  arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1 or 2)' }],
   options: [
     { name: 'scan', value: 'file', description: 'a scan: CSV or whitespace table of frequency and level columns (docs/scan-import.md)' },
     { name: 'estimate', description: 'use the design’s noise estimate (emissions.estimate) instead of a scan' },

@@ -18,7 +18,7 @@ export const sweepCommand: Command = {
     'Sweeps the design over its frequency plan (or the one given here) and writes one row per frequency: CM and DM insertion loss in the 50 Ω/50 Ω test and in circuit, and the transfer from the CM and DM noise sources to the receiving network on each line, in dB and degrees. The grid holds the plan’s log-spaced points plus each part’s self-resonances and the located peaks and notches of the response.',
     'Warnings from the sweep (ideal parts, a measured table held outside its range) go to standard error.',
   ],
-  arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1)' }],
+  arguments: [{ name: 'design.json', description: 'a design file (JSON, format "chokepoint-design", version 1 or 2)' }],
   options: [
     { name: 'out', short: 'o', value: 'file', description: 'write to <file> instead of standard output ("-" is standard output)' },
     { name: 'json', description: 'write JSON (columns, data arrays, warnings, resonances) instead of CSV' },

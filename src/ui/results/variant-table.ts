@@ -185,7 +185,8 @@ export class VariantTable extends LitElement {
 
   private verdictCell(analysis: AnalysisState | undefined) {
     if (!analysis || analysis.status === 'running') return '…';
-    if (analysis.status === 'idle') return html`<span class="badge">${analysis.reason}</span>`;
+    // The reason is a sentence: in a comparison row it is a tooltip (the results panel says it in full).
+    if (analysis.status === 'idle') return html`<span class="badge" title=${analysis.reason}>no result</span>`;
     if (analysis.status === 'error') return html`<span class="fail">${analysis.error.message}</span>`;
     const report = analysis.analysis.report;
     if (report.comparisons.length === 0) return html`<span class="badge">not judged</span>`;
