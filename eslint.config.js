@@ -10,7 +10,7 @@ const restrict = (...groups) => ({
 });
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'dist-cli/**', 'node_modules/**', '.ci-out/**', 'scratch/**', 'coverage/**', 'fixtures/touchstone/*.ts' /* Touchstone 2 data files, not TypeScript */] },
+  { ignores: ['dist/**', 'dist-cli/**', 'node_modules/**', '.ci-out/**', 'scratch/**', '.scratch/**', 'coverage/**', 'fixtures/touchstone/*.ts' /* Touchstone 2 data files, not TypeScript */] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
