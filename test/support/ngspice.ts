@@ -21,19 +21,21 @@ export interface GoldenRun {
 
 export interface GoldenScript {
   runCase(caseDir: string): Promise<GoldenRun>;
+  /** The case's netlists run at exactly these frequencies (decimal text, Hz), one row each. */
+  runCaseAt(caseDir: string, frequencies: readonly string[]): Promise<GoldenRun>;
 }
 
 function isGoldenScript(value: unknown): value is GoldenScript {
   if (typeof value !== 'object' || value === null) return false;
   const record = value as Record<string, unknown>;
-  return typeof record['runCase'] === 'function';
+  return typeof record['runCase'] === 'function' && typeof record['runCaseAt'] === 'function';
 }
 
 /** Import the regeneration script (the same code `npm run goldens` runs). */
 export async function loadGoldenScript(): Promise<GoldenScript> {
   const specifier = new URL('../../scripts/regenerate-goldens.mjs', import.meta.url).href;
   const loaded: unknown = await import(/* @vite-ignore */ specifier);
-  if (!isGoldenScript(loaded)) throw new Error('scripts/regenerate-goldens.mjs does not export runCase');
+  if (!isGoldenScript(loaded)) throw new Error('scripts/regenerate-goldens.mjs does not export runCase and runCaseAt');
   return loaded;
 }
 

@@ -198,21 +198,25 @@ function appendElement(element: NetworkElement, scratch: ElementScratch, chain: 
 
 const ADMITTANCE_LIMIT_SQUARED = ADMITTANCE_LIMIT_S * ADMITTANCE_LIMIT_S;
 
-/** y = factor/z, with 1/z limited to ADMITTANCE_LIMIT_S where z is (or is nearly) a short. */
+/**
+ * y = factor/z. Only a lossless short is limited (and its point flagged): z exactly 0, or purely
+ * reactive (re exactly 0) with |1/z| beyond ADMITTANCE_LIMIT_S, which an ideal part reaches only at
+ * its series resonance. A part with losses has |z| ≥ its resistance > 0 and is inverted exactly,
+ * however small (docs/engine-math.md §6).
+ */
 function invertInto(z: ComplexColumns, y: ComplexColumns, count: number, flags: Uint8Array, factor: number): void {
   for (let i = 0; i < count; i += 1) {
     const zr = z.re[i]!;
     const zi = z.im[i]!;
     const z2 = zr * zr + zi * zi;
-    if (z2 * ADMITTANCE_LIMIT_SQUARED >= 1) {
+    if (z2 > 0 && (zr !== 0 || z2 * ADMITTANCE_LIMIT_SQUARED >= 1)) {
       y.re[i] = (factor * zr) / z2;
       y.im[i] = (-factor * zi) / z2;
     } else {
       flags[i]! |= PointFlag.IdealResonanceLimited;
-      const magnitude = Math.sqrt(z2);
       // A perfect short keeps no direction; a real one would be resistive.
-      y.re[i] = factor * (magnitude > 0 ? (zr / magnitude) * ADMITTANCE_LIMIT_S : ADMITTANCE_LIMIT_S);
-      y.im[i] = factor * (magnitude > 0 ? (-zi / magnitude) * ADMITTANCE_LIMIT_S : 0);
+      y.re[i] = factor * (zi === 0 ? ADMITTANCE_LIMIT_S : 0);
+      y.im[i] = factor * (zi === 0 ? 0 : -Math.sign(zi) * ADMITTANCE_LIMIT_S);
     }
   }
 }

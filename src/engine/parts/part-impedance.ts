@@ -14,17 +14,25 @@ import { interpolateImpedanceTable, type PreparedTable, prepareImpedanceTable } 
 
 /**
  * Impedance of each part over a grid, written into caller-owned arrays (no allocation per point).
- * Formulas are in docs/engine-math.md §2. Every result is finite: an ideal part exactly on a
- * resonance is limited to IMPEDANCE_LIMIT_OHM and the point is flagged.
+ * Formulas are in docs/engine-math.md §2. Every result is finite. A part with losses is stored
+ * exactly as computed, however large (a lossy choke's self-resonance peak is finite and must not
+ * be clipped); only a lossless value (purely reactive: its real part exactly zero) beyond
+ * IMPEDANCE_LIMIT_OHM, which an ideal part reaches only at its resonance, is limited and flagged
+ * (docs/engine-math.md §6).
  */
 
 const TWO_PI = 2 * Math.PI;
 const LIMIT_SQUARED = IMPEDANCE_LIMIT_OHM * IMPEDANCE_LIMIT_OHM;
 
-/** Store z at index i, limiting its magnitude and flagging the point when limited. */
+/**
+ * Store z at index i. A lossless value (re exactly 0: every formula here adds only positive real
+ * parts for its losses, so an ideal part's real part is an exact zero) beyond the limit is the
+ * rounding residue of an exact pole and is limited, with the point flagged; so is a value that
+ * is not finite (a division by an exact zero). A lossy value is never touched.
+ */
 function store(out: ComplexColumns, flags: Uint8Array, i: number, re: number, im: number): void {
   const magnitudeSquared = re * re + im * im;
-  if (magnitudeSquared <= LIMIT_SQUARED) {
+  if (Number.isFinite(magnitudeSquared) && (re !== 0 || magnitudeSquared <= LIMIT_SQUARED)) {
     out.re[i] = re;
     out.im[i] = im;
     return;
@@ -36,9 +44,8 @@ function store(out: ComplexColumns, flags: Uint8Array, i: number, re: number, im
     out.im[i] = 0;
     return;
   }
-  const scale = IMPEDANCE_LIMIT_OHM / Math.sqrt(magnitudeSquared);
-  out.re[i] = re * scale;
-  out.im[i] = im * scale;
+  out.re[i] = 0;
+  out.im[i] = Math.sign(im) * IMPEDANCE_LIMIT_OHM;
 }
 
 /**
